@@ -1,0 +1,66 @@
+import express, { Router } from 'express';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import { pinoHttp } from 'pino-http';
+import { createLoginLimiter } from './auth/limiter';
+import { authRouter } from './auth/router';
+import { configurePassport, sessionMiddleware } from './auth/session';
+import type { Deps } from './deps';
+import { healthRouter } from './health/router';
+import { requireCsrfHeader } from './http/csrf';
+import { apiNotFound, errorHandler } from './http/errors';
+import { usersRouter } from './users/router';
+
+const clientDir = path.resolve(import.meta.dirname, '..', 'dist', 'client');
+
+/** The routers of every business component, mounted under /api. Add new features here. */
+export function apiRouters(deps: Deps): Router[] {
+  return [healthRouter(deps), usersRouter(deps.db)];
+}
+
+/** Builds the Express app (tests import this; `index.ts` listens). */
+export function createApp(deps: Deps, opts: { serveClient?: boolean } = {}) {
+  const { config } = deps;
+  const app = express();
+  app.disable('x-powered-by');
+  if (config.trustProxy) app.set('trust proxy', 1);
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'upgrade-insecure-requests': config.trustProxy ? [] : null },
+      },
+      strictTransportSecurity: config.trustProxy,
+    }),
+  );
+  app.use(
+    pinoHttp({
+      level: config.logLevel,
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
+    }),
+  );
+
+  const passport = configurePassport(deps.db);
+  const api = Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(requireCsrfHeader);
+  api.use(sessionMiddleware(deps.pool, config.sessionSecret, config.trustProxy));
+  api.use(passport.session());
+  api.use(authRouter(passport, createLoginLimiter(deps.redis)));
+  for (const r of apiRouters(deps)) api.use(r);
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  if (opts.serveClient && existsSync(clientDir)) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    // Deep links: every non-API path gets the client's index.html.
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html'), { maxAge: 0 }));
+  }
+  app.use(errorHandler);
+  return app;
+}
