@@ -18,6 +18,7 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 60_000,
     include: ['tests/**/*.test.ts'],
+    globalSetup: ['tests/global-setup.ts'],
     exclude: ['node_modules/**', 'tests/e2e/**'],
   },
 });

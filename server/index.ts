@@ -1,13 +1,35 @@
+import { ROLES } from '../src/contracts/roles';
+import { createApp } from './app';
 import { config } from './config';
 import { createDeps } from './deps';
-import { createApp } from './app';
+import { DEMO_PASSWORD, demoEmail } from './seed/demo';
 
 const cfg = config();
 const deps = createDeps(cfg);
 await deps.storage.ensureBucket().catch((e) => console.error(`object store: ${e.message}`));
 const app = createApp(deps, { serveClient: true });
+
 const server = app.listen(cfg.port, cfg.host, () => {
-  console.log(`Spoolwright API listening on http://${cfg.host}:${cfg.port}`);
+  if (process.env.SPOOLWRIGHT_BANNER) {
+    const lines = [
+      '',
+      `  Spoolwright is running at ${cfg.publicUrl}`,
+      ...(cfg.mailViewerUrl ? [`  Mailbox viewer (caught e-mail): ${cfg.mailViewerUrl}`] : []),
+      '',
+      `  Demo sign-ins (password: ${DEMO_PASSWORD})`,
+      ...ROLES.map((r) => `    ${r.padEnd(9)} ${demoEmail(r)}`),
+      '',
+      '  Ctrl-C stops the app; `npm run stop` stops the local services.',
+      '',
+    ];
+    console.log(lines.join('\n'));
+  } else {
+    console.log(`Spoolwright API listening on http://${cfg.host}:${cfg.port}`);
+  }
+});
+server.on('error', (e) => {
+  console.error(`Cannot listen on ${cfg.host}:${cfg.port}: ${e.message}`);
+  process.exit(1);
 });
 
 function shutdown() {

@@ -25,7 +25,7 @@ export function createLoginLimiter(redis: Redis) {
     async blockedFor(email: string, ip: string): Promise<number> {
       try {
         const r = await limiter.get(key(email, ip));
-        return r && r.consumedPoints > LOGIN_FAILURES_ALLOWED ? Math.ceil(r.msBeforeNext / 1000) : 0;
+        return r && r.consumedPoints >= LOGIN_FAILURES_ALLOWED ? Math.ceil(r.msBeforeNext / 1000) : 0;
       } catch {
         return 0;
       }

@@ -1,0 +1,65 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ROLES, type Role } from '../../src/contracts/roles';
+import { csrf, testApp } from '../helpers/app';
+import { concretePath, listRoutes } from '../helpers/routes';
+
+const t = testApp();
+afterAll(() => t.close());
+
+const PUBLIC_ROUTES = ['GET /api/health', 'POST /api/auth/login'];
+const routes = listRoutes(t.app);
+const agents = {} as Record<Role, Awaited<ReturnType<typeof t.signIn>>>;
+
+beforeAll(async () => {
+  for (const role of ROLES) agents[role] = await t.signIn(role);
+});
+
+function send(agent: ReturnType<typeof t.request> | (typeof agents)[Role], method: string, path: string) {
+  const m = method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
+  return (agent as unknown as Record<string, (p: string) => import('supertest').Test>)[m](path).set(csrf).send({});
+}
+
+describe('every API route declares who may use it', () => {
+  it('finds the routes (the walk itself works)', () => {
+    const names = routes.map((r) => `${r.method} ${r.path}`);
+    expect(names).toContain('POST /api/auth/login');
+    expect(names).toContain('GET /api/users');
+    expect(routes.length).toBeGreaterThan(6);
+  });
+
+  it('has no route without a declared rule', () => {
+    const missing = routes.filter((r) => !r.rule).map((r) => `${r.method} ${r.path}`);
+    expect(missing).toEqual([]);
+  });
+
+  it('only health and sign-in are public', () => {
+    const open = routes.filter((r) => r.rule && 'public' in r.rule).map((r) => `${r.method} ${r.path}`);
+    expect(open.sort()).toEqual([...PUBLIC_ROUTES].sort());
+  });
+
+  it('refuses every non-public route when signed out (401)', async () => {
+    const failures: string[] = [];
+    for (const r of routes) {
+      if (!r.rule || 'public' in r.rule) continue;
+      const res = await send(t.request(), r.method, concretePath(r.path));
+      if (res.status !== 401 || res.body.error?.code !== 'unauthenticated') failures.push(`${r.method} ${r.path} → ${res.status}`);
+    }
+    expect(failures).toEqual([]);
+  });
+
+  it('refuses every role a route does not list (403)', async () => {
+    const failures: string[] = [];
+    let checked = 0;
+    for (const r of routes) {
+      if (!r.rule || 'public' in r.rule) continue;
+      const admitted = r.rule.roles;
+      for (const role of ROLES.filter((x) => !admitted.includes(x))) {
+        checked += 1;
+        const res = await send(agents[role], r.method, concretePath(r.path));
+        if (res.status !== 403 || res.body.error?.code !== 'forbidden') failures.push(`${role}: ${r.method} ${r.path} → ${res.status}`);
+      }
+    }
+    expect(checked).toBeGreaterThan(0);
+    expect(failures).toEqual([]);
+  });
+});
