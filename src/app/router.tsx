@@ -1,0 +1,49 @@
+/**
+ * The data router. The shell (layout, guards, error pages) loads with the app; every screen is a
+ * lazy route module exporting `Component`, fetched when first opened. Guards run as loaders, so a
+ * deep link checks the session (and the role) before the screen draws.
+ */
+import { createBrowserRouter } from 'react-router';
+import { setUnauthorizedHandler, signInHref } from '../lib/api';
+import { queryClient } from '../lib/queryClient';
+import { SESSION_KEY, setSessionUser } from '../lib/session';
+import { requireScreen, requireSignedIn } from './guards';
+import { Layout, StartupFallback } from './Layout';
+import { NotFound } from './NotFound';
+import { RouteError } from './RouteError';
+
+export const router = createBrowserRouter([
+  {
+    path: '/sign-in',
+    lazy: () => import('../features/auth/routes'),
+    ErrorBoundary: RouteError,
+    HydrateFallback: StartupFallback,
+  },
+  {
+    id: 'signed-in',
+    path: '/',
+    loader: requireSignedIn,
+    Component: Layout,
+    ErrorBoundary: RouteError,
+    HydrateFallback: StartupFallback,
+    children: [
+      {
+        // Errors below show inside the layout, with the navigation still there.
+        ErrorBoundary: RouteError,
+        children: [
+          { index: true, loader: requireScreen('home'), lazy: () => import('../features/home/routes') },
+          { path: 'users', loader: requireScreen('users'), lazy: () => import('../features/users/routes') },
+          { path: '*', Component: NotFound },
+        ],
+      },
+    ],
+  },
+]);
+
+// A 401 from any API call: the session is gone. Forget it and go to sign-in, coming back after.
+setUnauthorizedHandler((next) => {
+  if (window.location.pathname === '/sign-in') return;
+  queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== SESSION_KEY[0] });
+  setSessionUser(null);
+  void router.navigate(signInHref(next), { replace: true });
+});

@@ -1,0 +1,38 @@
+/**
+ * Every screen a signed-in person can open: one row each, with the roles it is for.
+ * The navigation is built from this table (in this order) and the router's role guard reads it,
+ * so a screen is shown in the menu exactly when its route lets the role in. A new feature adds
+ * its row here and its route in router.tsx. (The server decides for real; this only hides what
+ * it would refuse.)
+ */
+import { ROLES, type Role } from '../contracts/roles';
+
+export type ScreenId = 'home' | 'users';
+
+export type Screen = {
+  id: ScreenId;
+  path: string;
+  label: string;
+  roles: readonly Role[];
+  /** Shown in the top navigation. */
+  inNav: boolean;
+};
+
+export const SCREENS: readonly Screen[] = [
+  { id: 'home', path: '/', label: 'Home', roles: ROLES, inNav: true },
+  { id: 'users', path: '/users', label: 'Users', roles: ['admin'], inNav: true },
+];
+
+export function screen(id: ScreenId): Screen {
+  const s = SCREENS.find((x) => x.id === id);
+  if (!s) throw new Error(`No screen ${id}`);
+  return s;
+}
+
+/** The navigation for one role. */
+export const navFor = (role: Role) => SCREENS.filter((s) => s.inNav && s.roles.includes(role));
+
+export const canOpen = (role: Role, id: ScreenId) => screen(id).roles.includes(role);
+
+/** Roles that work standing at a bench or a tablet: bigger targets, larger type. */
+export const TOUCH_ROLES: readonly Role[] = ['floor', 'foreman', 'shipping'];

@@ -1,0 +1,2 @@
+/** Route module for /users (lazy-loaded; the router's guard admits admins only). */
+export { UsersPage as Component } from './UsersPage';
