@@ -11,12 +11,27 @@ import { healthRouter } from './health/router';
 import { requireCsrfHeader } from './http/csrf';
 import { apiNotFound, errorHandler } from './http/errors';
 import { usersRouter } from './users/router';
+import { customersRouter } from './customers/router';
+import { ordersRouter } from './orders/router';
+import { attachmentsRouter } from './attachments/router';
+import { calculationsRouter } from './calculations/router';
+import { jobsRouter } from './jobs/router';
+import { notificationsRouter } from './notifications/router';
 
 const clientDir = path.resolve(import.meta.dirname, '..', 'dist', 'client');
 
 /** The routers of every business component, mounted under /api. Add new features here. */
 export function apiRouters(deps: Deps): Router[] {
-  return [healthRouter(deps), usersRouter(deps.db)];
+  return [
+    healthRouter(deps),
+    usersRouter(deps.db),
+    customersRouter(deps.db),
+    ordersRouter(deps.db),
+    attachmentsRouter(deps.db, deps.storage),
+    calculationsRouter(),
+    jobsRouter(deps),
+    notificationsRouter(deps),
+  ];
 }
 
 /** Builds the Express app (tests import this; `index.ts` listens). */

@@ -3,6 +3,8 @@ import { createDb } from './db/client';
 import { createMailer } from './infra/mail';
 import { createRedis } from './infra/redis';
 import { createStorage } from './infra/storage';
+import { producerConnection } from '../jobs/connection';
+import { createQueues } from '../jobs/queues';
 
 /** The connections one process holds. Built once at start and handed to the app and workers. */
 export function createDeps(config: Config) {
@@ -10,6 +12,9 @@ export function createDeps(config: Config) {
   const redis = createRedis(config.redisUrl);
   const storage = createStorage(config.s3);
   const mailer = createMailer(config.smtpUrl, config.mailFrom);
+  // Producers: add jobs and read their state; they fail fast while Redis is away.
+  const queueConnection = producerConnection(config.redisUrl);
+  const queues = createQueues(queueConnection);
   return {
     config,
     db,
@@ -17,8 +22,11 @@ export function createDeps(config: Config) {
     redis,
     storage,
     mailer,
+    queues,
     async close() {
       mailer.close();
+      await queues.close().catch(() => {});
+      queueConnection.disconnect();
       redis.disconnect();
       storage.client.destroy();
       await pool.end();

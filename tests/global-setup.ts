@@ -3,6 +3,7 @@ import { createDb } from '../server/db/client';
 import { dropEverything, ensureDatabase, runMigrations } from '../server/db/migrate';
 import { seed } from '../server/seed/demo';
 import { createStorage } from '../server/infra/storage';
+import { Redis } from 'ioredis';
 
 /** A clean test database: dropped, migrated and seeded once per run of the suite, and its bucket. */
 export default async function setup() {
@@ -17,6 +18,13 @@ export default async function setup() {
     await dropEverything(pool);
     await runMigrations(db);
     await seed(db);
+    // Queued jobs are keyed by database ids, which restart with the database: empty the test
+    // Redis database too (never database 0, where a local demo keeps its queue).
+    const redisDb = Number(new URL(config.redisUrl).pathname.slice(1) || 0);
+    if (redisDb === 0) throw new Error(`Refusing to flush ${config.redisUrl}: tests use a Redis database other than 0`);
+    const redis = new Redis(config.redisUrl, { maxRetriesPerRequest: 1 });
+    await redis.flushdb();
+    redis.disconnect();
     const storage = createStorage(config.s3);
     await storage.ensureBucket();
     storage.client.destroy();

@@ -1,7 +1,28 @@
 import { sql } from 'drizzle-orm';
-import { boolean, index, integer, json, pgEnum, pgTable, serial, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/pg-core';
+import {
+  bigserial,
+  boolean,
+  char,
+  date,
+  doublePrecision,
+  index,
+  integer,
+  json,
+  jsonb,
+  pgEnum,
+  pgSequence,
+  pgTable,
+  serial,
+  text,
+  timestamp,
+  uniqueIndex,
+  varchar,
+} from 'drizzle-orm/pg-core';
 import { ROLES } from '../../src/contracts/roles';
+import { NOTIFICATION_STATUSES } from '../../src/contracts/jobs';
 import { LENGTH_UNITS, TEMPERATURE_UNITS } from '../../src/contracts/auth';
+import type { Address } from '../../src/contracts/customers';
+import { ORDER_EVENT_KINDS, ORDER_STATUSES, type Requirement } from '../../src/contracts/orders';
 
 export const roleEnum = pgEnum('role', ROLES);
 export const lengthUnitEnum = pgEnum('length_unit', LENGTH_UNITS);
@@ -12,14 +33,20 @@ const timestamps = {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 };
 
-/** Customer companies. The orders issue adds contacts, addresses and the rest. */
+const EMPTY_ADDRESS_SQL = sql`'{"line1":"","line2":"","city":"","region":"","postalCode":"","country":""}'::jsonb`;
+
+/** Customer companies, their addresses and internal notes; contacts in customer_contacts. */
 export const customers = pgTable(
   'customers',
   {
     id: serial('id').primaryKey(),
     name: varchar('name', { length: 160 }).notNull(),
+    /** Internal notes; never shown to the customer. */
     notes: text('notes').notNull().default(''),
     ...timestamps,
+    billingAddress: jsonb('billing_address').$type<Address>().notNull().default(EMPTY_ADDRESS_SQL),
+    /** null: ship to the billing address. */
+    shippingAddress: jsonb('shipping_address').$type<Address>(),
   },
   (t) => [uniqueIndex('customers_name_unique').on(sql`lower(${t.name})`)],
 );
@@ -60,3 +87,155 @@ export const appMeta = pgTable('app_meta', {
   value: text('value').notNull(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
+
+/** People at a customer company, and which notices each receives. */
+export const customerContacts = pgTable(
+  'customer_contacts',
+  {
+    id: serial('id').primaryKey(),
+    customerId: integer('customer_id')
+      .notNull()
+      .references(() => customers.id, { onDelete: 'cascade' }),
+    /** Order in the company's list (the first contact is the fallback for order notices). */
+    position: integer('position').notNull().default(0),
+    name: varchar('name', { length: 120 }).notNull(),
+    email: varchar('email', { length: 254 }).notNull().default(''),
+    phone: varchar('phone', { length: 40 }).notNull().default(''),
+    notifyOrders: boolean('notify_orders').notNull().default(false),
+    notifyShipping: boolean('notify_shipping').notNull().default(false),
+    ...timestamps,
+  },
+  (t) => [index('customer_contacts_customer_idx').on(t.customerId, t.position)],
+);
+
+export const orderStatusEnum = pgEnum('order_status', ORDER_STATUSES);
+export const orderEventKindEnum = pgEnum('order_event_kind', ORDER_EVENT_KINDS);
+
+/** Shop-wide order numbers: never reset, never reused (a rolled-back order leaves a gap). */
+export const orderNumberSeq = pgSequence('order_number_seq', { startWith: 1001 });
+
+export const orders = pgTable(
+  'orders',
+  {
+    id: serial('id').primaryKey(),
+    /** "SO-<year>-<sequence>", from order_number_seq. */
+    number: varchar('number', { length: 24 }).notNull(),
+    customerId: integer('customer_id')
+      .notNull()
+      .references(() => customers.id, { onDelete: 'restrict' }),
+    /** The customer's purchase-order number; unique per customer, any case. */
+    purchaseOrder: varchar('purchase_order', { length: 60 }).notNull(),
+    orderDate: date('order_date', { mode: 'string' }).notNull(),
+    /** Requested ship date. */
+    dueDate: date('due_date', { mode: 'string' }).notNull(),
+    /** Internal notes; never shown to the customer. */
+    notes: text('notes').notNull().default(''),
+    status: orderStatusEnum('status').notNull().default('entered'),
+    acknowledgedAt: timestamp('acknowledged_at', { withTimezone: true }),
+    acknowledgedBy: integer('acknowledged_by').references(() => users.id, { onDelete: 'set null' }),
+    cancelledAt: timestamp('cancelled_at', { withTimezone: true }),
+    cancelledBy: integer('cancelled_by').references(() => users.id, { onDelete: 'set null' }),
+    cancelReason: text('cancel_reason'),
+    createdBy: integer('created_by').references(() => users.id, { onDelete: 'set null' }),
+    ...timestamps,
+  },
+  (t) => [
+    uniqueIndex('orders_number_unique').on(t.number),
+    uniqueIndex('orders_customer_po_unique').on(t.customerId, sql`lower(${t.purchaseOrder})`),
+    index('orders_status_due_idx').on(t.status, t.dueDate),
+  ],
+);
+
+export const orderLines = pgTable(
+  'order_lines',
+  {
+    id: serial('id').primaryKey(),
+    orderId: integer('order_id')
+      .notNull()
+      .references(() => orders.id, { onDelete: 'cascade' }),
+    lineNo: integer('line_no').notNull(),
+    quantity: integer('quantity').notNull(),
+    title: varchar('title', { length: 200 }).notNull(),
+    customerPartNumber: varchar('customer_part_number', { length: 80 }).notNull().default(''),
+    /** What the customer states, SI, validated by RequirementSchema (src/contracts/orders.ts). */
+    requirement: jsonb('requirement').$type<Requirement>().notNull(),
+    /** ± % on the resistance at 20 °C. */
+    tolerancePercent: doublePrecision('tolerance_percent').notNull().default(10),
+    terminationNotes: text('termination_notes').notNull().default(''),
+    leadNotes: text('lead_notes').notNull().default(''),
+    ...timestamps,
+  },
+  (t) => [uniqueIndex('order_lines_order_line_no_unique').on(t.orderId, t.lineNo)],
+);
+
+/** The audit trail of an order: who changed what, when (field → [old, new]). Never rewritten. */
+export const orderEvents = pgTable(
+  'order_events',
+  {
+    id: bigserial('id', { mode: 'number' }).primaryKey(),
+    orderId: integer('order_id')
+      .notNull()
+      .references(() => orders.id, { onDelete: 'cascade' }),
+    at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+    actorId: integer('actor_id').references(() => users.id, { onDelete: 'set null' }),
+    kind: orderEventKindEnum('kind').notNull(),
+    changes: jsonb('changes').$type<Record<string, [unknown, unknown]>>().notNull().default(sql`'{}'::jsonb`),
+    note: text('note'),
+  },
+  (t) => [index('order_events_order_idx').on(t.orderId, t.at)],
+);
+
+/** Drawings and specs, stored in the object store under storage_key; this row is the index. */
+export const attachments = pgTable(
+  'attachments',
+  {
+    id: serial('id').primaryKey(),
+    orderId: integer('order_id')
+      .notNull()
+      .references(() => orders.id, { onDelete: 'restrict' }),
+    /** The line it belongs to; null for the whole order (or when its line was removed). */
+    lineId: integer('line_id').references(() => orderLines.id, { onDelete: 'set null' }),
+    filename: varchar('filename', { length: 255 }).notNull(),
+    /** Decided from the content, not the name. */
+    contentType: varchar('content_type', { length: 100 }).notNull(),
+    size: integer('size').notNull(),
+    sha256: char('sha256', { length: 64 }).notNull(),
+    storageKey: varchar('storage_key', { length: 300 }).notNull(),
+    uploadedBy: integer('uploaded_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('attachments_order_idx').on(t.orderId), uniqueIndex('attachments_storage_key_unique').on(t.storageKey)],
+);
+
+export const notificationStatusEnum = pgEnum('notification_status', NOTIFICATION_STATUSES);
+export type NotificationRecipient = { name: string; email: string };
+
+/**
+ * Outbox of messages to send (e-mail today). A business change writes its row in its own
+ * transaction; a worker delivers rows whose status is 'pending' and whose due_at has come.
+ * 'skipped' rows record a notice that had nobody to go to, with the reason.
+ */
+export const notifications = pgTable(
+  'notifications',
+  {
+    id: bigserial('id', { mode: 'number' }).primaryKey(),
+    /** What to say, e.g. 'order_acknowledged'; the worker picks a template by kind. */
+    kind: varchar('kind', { length: 60 }).notNull(),
+    recipients: jsonb('recipients').$type<NotificationRecipient[]>().notNull().default(sql`'[]'::jsonb`),
+    orderId: integer('order_id').references(() => orders.id, { onDelete: 'set null' }),
+    /** Everything the message needs, captured when it was asked for. */
+    payload: jsonb('payload').$type<Record<string, unknown>>().notNull().default(sql`'{}'::jsonb`),
+    status: notificationStatusEnum('status').notNull().default('pending'),
+    /** Why it was skipped (or gave up), in words. */
+    reason: text('reason'),
+    attempts: integer('attempts').notNull().default(0),
+    lastError: text('last_error'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    /** Not before this time (retries push it later). */
+    dueAt: timestamp('due_at', { withTimezone: true }).notNull().defaultNow(),
+    sentAt: timestamp('sent_at', { withTimezone: true }),
+    /** The mail server's message id once sent. */
+    messageId: varchar('message_id', { length: 300 }),
+  },
+  (t) => [index('notifications_due_idx').on(t.status, t.dueAt), index('notifications_order_idx').on(t.orderId)],
+);

@@ -3,6 +3,7 @@ import { ROLES, type Role } from '../../src/contracts/roles';
 import type { Db } from '../db/client';
 import { appMeta, customers, users } from '../db/schema';
 import { hashPassword } from '../users/service';
+import { demoOrdersStep } from './orders';
 
 /** The demo sign-ins: `<role>@spoolwright.test`, one per role, all with this password. */
 export const DEMO_PASSWORD = 'spoolwright-demo';
@@ -49,6 +50,8 @@ export const SEED_STEPS: Step[] = [
       );
     },
   },
+  // Customers with contacts, orders in every status and a few drawings (server/seed/orders.ts).
+  demoOrdersStep,
 ];
 
 /** Runs the steps not yet recorded, each in its own transaction with its record. */

@@ -1,0 +1,93 @@
+/**
+ * The customer and internal e-mails, rendered from a notification's payload (captured when the
+ * event happened) into a subject, plain text and HTML in the shop's look. One function per kind.
+ */
+export type MailContext = { shopName: string; publicUrl: string };
+/** A file to attach, fetched by the processor (for example a certificate from the object store). */
+export type MailAttachment = { filename: string; content: Buffer; contentType: string };
+export type RenderedMail = { subject: string; text: string; html: string; attachments?: MailAttachment[] };
+type Payload = Record<string, unknown>;
+type Line = { lineNo: number; quantity: number; title: string; customerPartNumber?: string | null };
+
+const esc = (s: unknown) =>
+  String(s ?? '').replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+const fmtDate = (iso: unknown) => {
+  if (typeof iso !== 'string' || !iso) return 'not set';
+  const d = new Date(iso.length === 10 ? `${iso}T00:00:00Z` : iso);
+  return d.toLocaleDateString('en-GB', { day: '2-digit', month: 'short', year: 'numeric', timeZone: 'UTC' });
+};
+
+const orderLink = (ctx: MailContext, p: Payload) => `${ctx.publicUrl.replace(/\/$/, '')}/orders/${p.orderId}`;
+
+function linesText(lines: Line[]) {
+  return lines.map((l) => `  ${l.lineNo}. ${l.quantity} × ${l.title}${l.customerPartNumber ? ` (your part ${l.customerPartNumber})` : ''}`).join('\n');
+}
+function linesHtml(lines: Line[]) {
+  const rows = lines
+    .map(
+      (l) =>
+        `<tr><td style="padding:4px 8px;color:#5b6169">${l.lineNo}</td><td style="padding:4px 8px;text-align:right">${l.quantity}&nbsp;×</td><td style="padding:4px 8px">${esc(l.title)}${
+          l.customerPartNumber ? ` <span style="color:#5b6169">(your part ${esc(l.customerPartNumber)})</span>` : ''
+        }</td></tr>`,
+    )
+    .join('');
+  return `<table style="border-collapse:collapse;font-size:14px;margin:8px 0 16px">${rows}</table>`;
+}
+
+/** The shop's frame: graphite header with the copper rule, body, footer. */
+function frame(ctx: MailContext, title: string, body: string) {
+  return `<!doctype html><html><body style="margin:0;background:#f3f4f5;font-family:Barlow,'Segoe UI',Arial,sans-serif;color:#1e2126">
+<table role="presentation" width="100%" style="border-collapse:collapse"><tr><td align="center" style="padding:24px 12px">
+<table role="presentation" width="600" style="border-collapse:collapse;background:#ffffff;border:1px solid #d9dcdf">
+<tr><td style="background:#23272d;color:#ffffff;padding:16px 24px;font-size:18px;font-weight:600;border-bottom:3px solid #b8632f">${esc(ctx.shopName)}</td></tr>
+<tr><td style="padding:24px"><h1 style="font-size:20px;margin:0 0 12px">${esc(title)}</h1>${body}</td></tr>
+<tr><td style="padding:12px 24px;font-size:12px;color:#5b6169;border-top:1px solid #e6e8ea">Sent by ${esc(ctx.shopName)}. Reply to this message if anything is not as you expect.</td></tr>
+</table></td></tr></table></body></html>`;
+}
+
+const button = (href: string, label: string) =>
+  `<p style="margin:20px 0"><a href="${esc(href)}" style="background:#b8632f;color:#ffffff;text-decoration:none;padding:10px 16px;font-weight:600">${esc(label)}</a></p>`;
+
+const renderers: Record<string, (p: Payload, ctx: MailContext) => RenderedMail> = {
+  order_acknowledged(p, ctx) {
+    const lines = (p.lines as Line[]) ?? [];
+    const subject = `Order received: your PO ${p.purchaseOrder} (our ${p.orderNumber})`;
+    const link = orderLink(ctx, p);
+    const text = [
+      `Thank you — we have your order.`,
+      ``,
+      `Your purchase order: ${p.purchaseOrder}`,
+      `Our order number:    ${p.orderNumber}`,
+      `Requested ship date: ${fmtDate(p.dueDate)}`,
+      ``,
+      `Lines:`,
+      linesText(lines),
+      ``,
+      `What happens next: our engineers turn each line into a build sheet. We will write again when`,
+      `the order is released to the winding floor, and when it ships, with the tracking number.`,
+      ``,
+      `Follow the order: ${link}`,
+      ``,
+      `— ${ctx.shopName}`,
+    ].join('\n');
+    const html = frame(
+      ctx,
+      'We have your order',
+      `<p>Thank you. Your purchase order <strong>${esc(p.purchaseOrder)}</strong> is entered as our order <strong>${esc(p.orderNumber)}</strong>, requested to ship by <strong>${esc(fmtDate(p.dueDate))}</strong>.</p>
+${linesHtml(lines)}
+<p><strong>What happens next:</strong> our engineers turn each line into a build sheet. We will write again when the order is released to the winding floor, and when it ships, with the tracking number.</p>
+${button(link, 'Follow the order')}`,
+    );
+    return { subject, text, html };
+  },
+};
+
+export const MAIL_KINDS = Object.keys(renderers);
+
+/** Renders a notification; an unknown kind is a programming error and fails the job. */
+export function renderMail(kind: string, payload: Payload, ctx: MailContext): RenderedMail {
+  const r = renderers[kind];
+  if (!r) throw new Error(`No e-mail template for notification kind '${kind}'`);
+  return r(payload, ctx);
+}
