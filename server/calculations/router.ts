@@ -15,6 +15,9 @@ export function calculationsRouter() {
   r.post('/coil/sweep', allow(...CALCULATORS), (req, res) => {
     res.json(coil.sweep(parse(CoilSpecSchema, req.body)));
   });
+  r.post('/coil/profile', allow(...CALCULATORS), (req, res) => {
+    res.json(coil.profile(parse(CoilSpecSchema, req.body)));
+  });
   r.post('/coil/solve', allow(...CALCULATORS), (req, res) => {
     res.json(coil.solve(parse(CoilSolveRequestSchema, req.body)));
   });

@@ -1,5 +1,6 @@
 import type { CoilSolveRequest, CoilSpec } from '../../src/contracts/coil';
-import { CoilSpecError, designCoil, solveCoil, sweepWireSizes } from '../coil';
+import type { CoilProfileResponse } from '../../src/contracts/coil';
+import { CoilSpecError, designCoil, fieldAlongAxis, pullAgainstGap, solveCoil, sweepWireSizes, warmUpCurve } from '../coil';
 import { badRequest } from '../http/errors';
 
 /** Runs the engine; a spec it refuses becomes 400 `validation` naming the field. */
@@ -15,3 +16,23 @@ function run<T>(fn: () => T): T {
 export const calculate = (spec: CoilSpec) => run(() => designCoil(spec));
 export const sweep = (spec: CoilSpec) => run(() => sweepWireSizes(spec));
 export const solve = (req: CoilSolveRequest) => run(() => solveCoil(req.spec, req.target));
+
+/**
+ * The curves for a build sheet's pictures: field along the axis (to twice the winding length each
+ * side), pull from zero gap to three times the design gap, and the warm-up to steady temperature.
+ */
+export const profile = (spec: CoilSpec): CoilProfileResponse =>
+  run(() => {
+    const sheet = designCoil(spec);
+    const half = 2 * sheet.windingLength;
+    const field = fieldAlongAxis(sheet, Array.from({ length: 121 }, (_, i) => -half + (2 * half * i) / 120));
+    let pull: CoilProfileResponse['pull'] = null;
+    const m = spec.magneticCircuit;
+    if (m && m.gapCount > 0) {
+      const top = Math.max(m.airGap * 3, 1e-3);
+      const gaps = Array.from({ length: 61 }, (_, i) => (top * i) / 60);
+      const curve = pullAgainstGap(spec, gaps);
+      pull = { caution: curve.caution, points: curve.points };
+    }
+    return { field, pull, warmUp: warmUpCurve(sheet, 81) };
+  });

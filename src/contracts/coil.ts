@@ -157,3 +157,19 @@ export const CoilSolveRequestSchema = z
   });
 
 export type CoilSolveRequest = z.infer<typeof CoilSolveRequestSchema>;
+
+/** POST /api/coil/profile: the curves a build sheet draws, computed by the engine on the server. */
+export const coilProfileResponse = z.object({
+  /** On-axis air-core field at the hot operating point, z in m from the winding's centre, B in T. */
+  field: z.array(z.object({ z: z.number(), B: z.number() })),
+  /** Pull across the working range of the gap (only with a magnetic circuit): gap in m, force in N. */
+  pull: z
+    .object({
+      caution: z.string(),
+      points: z.array(z.object({ gap: z.number(), fluxDensity: z.number(), force: z.number(), saturated: z.boolean() })),
+    })
+    .nullable(),
+  /** Winding temperature from switch-on to steady state: t in s, T in °C. */
+  warmUp: z.array(z.object({ t: z.number(), T: z.number() })),
+});
+export type CoilProfileResponse = z.infer<typeof coilProfileResponse>;

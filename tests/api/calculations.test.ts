@@ -83,3 +83,48 @@ describe('coil calculation routes', () => {
     }
   });
 });
+
+describe('POST /api/coil/profile (the curves the build sheet draws)', () => {
+  it('field along the axis peaks at the centre with the engine’s centre field, symmetric, falling outside', async () => {
+    const res = await engineer.post('/api/coil/profile').set(csrf).send(spec());
+    expect(res.status).toBe(200);
+    const sheet = designCoil(spec());
+    const field = res.body.field as { z: number; B: number }[];
+    const centre = field.reduce((a, b) => (Math.abs(b.z) < Math.abs(a.z) ? b : a));
+    expect(centre.z).toBeCloseTo(0, 12);
+    expect(centre.B).toBeCloseTo(sheet.centreField, 9);
+    expect(field[0].B).toBeCloseTo(field[field.length - 1].B, 9);
+    expect(Math.max(...field.map((p) => p.B))).toBeCloseTo(centre.B, 9);
+    expect(field[0].B).toBeLessThan(centre.B / 5);
+    expect(res.body.pull).toBeNull();
+  });
+
+  it('warm-up rises from ambient towards the steady winding temperature (first-order, 1 − e⁻¹ at one time constant)', async () => {
+    const res = await engineer.post('/api/coil/profile').set(csrf).send(spec());
+    const sheet = designCoil(spec());
+    const warm = res.body.warmUp as { t: number; T: number }[];
+    expect(warm[0]).toEqual({ t: 0, T: sheet.ambient });
+    const last = warm[warm.length - 1];
+    // At 5 time constants a first-order system is within e⁻⁵ ≈ 0.7 % of its step (textbook result).
+    expect(last.T).toBeCloseTo(sheet.ambient + sheet.temperatureRise * (1 - Math.exp(-5)), 6);
+    for (let i = 1; i < warm.length; i++) expect(warm[i].T).toBeGreaterThanOrEqual(warm[i - 1].T);
+  });
+
+  it('with a gapped core, pull falls as the gap opens and carries the lifting caution', async () => {
+    const withCore = { ...spec(), magneticCircuit: { relativePermeability: 2000, saturationFluxDensity: 1.5, ironPathLength: 0.06, airGap: 0.002, gapCount: 1, area: 9.5e-5 } };
+    const res = await engineer.post('/api/coil/profile').set(csrf).send(withCore);
+    expect(res.status).toBe(200);
+    const pts = res.body.pull.points as { gap: number; force: number }[];
+    expect(pts[0].gap).toBe(0);
+    for (let i = 2; i < pts.length; i++) expect(pts[i].force).toBeLessThanOrEqual(pts[i - 1].force);
+    expect(res.body.pull.caution).toMatch(/lifting/i);
+    const atDesign = pts.find((p) => Math.abs(p.gap - 0.002) < 1e-9)!;
+    expect(atDesign.force).toBeCloseTo(designCoil(withCore).pullForce!, 6);
+  });
+
+  it('refuses an impossible spec with fields', async () => {
+    const res = await engineer.post('/api/coil/profile').set(csrf).send({ ...spec(), dutyCycle: 2 });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.dutyCycle).toBeTruthy();
+  });
+});

@@ -1,0 +1,297 @@
+/**
+ * The traveler: the paper that follows a work order around the shop. One or two pages, drawn
+ * with pdfkit in the shop's look: the work order number as text, as a Code 128 barcode a
+ * keyboard-wedge scanner reads back as exactly the number, and as a QR code of its page; the job;
+ * the build sheet's essentials in the user's units and in SI; wire to pull; a sign-off row per
+ * stage; a test table to fill in by hand; and the cautions.
+ */
+import bwipjs from 'bwip-js/node';
+import PDFDocument from 'pdfkit';
+import type { UnitPreferences } from '../../src/contracts/auth';
+import {
+  formatLength,
+  formatNumber,
+  formatTemperature,
+  formatTemperatureDifference,
+  UNIT_SPACE,
+} from '../../src/lib/units';
+import type { BuildSheet, CoilSpec } from '../../server/coil/types';
+import { FONT_FILES, fontRuns, type FontName } from './fonts';
+
+export type TravelerData = {
+  shopName: string;
+  paper: 'A4' | 'LETTER';
+  url: string;
+  generatedAt: Date;
+  generatedBy: string;
+  units: UnitPreferences;
+  workOrder: { number: string; quantity: number; dueDate: string | null; priority: string; stage: string };
+  order: { number: string; purchaseOrder: string; customerName: string };
+  line: { lineNo: number; title: string; customerPartNumber: string | null; tolerancePercent: number; terminationNotes: string; leadNotes: string };
+  sheet: { version: number; engineVersion: string; spec: CoilSpec; result: BuildSheet; approvedBy: string | null };
+  spoolLots: { lot: string; supplier: string; mass: number }[];
+  /** The floor stages a work order passes, in order, for the sign-off rows. */
+  stages: { key: string; label: string }[];
+  scrapAllowancePercent: number;
+};
+
+export const CAUTIONS = [
+  'Hi-pot testing uses lethal voltages: test only in an interlocked fixture, by trained staff, with the unit discharged before handling.',
+  'Coils can run hot: a winding at its operating temperature can burn skin; over-temperature of the insulation is a fire risk.',
+  'A computed pull is not a lifting rating. Never rely on it to lift or hold a load without the applicable lifting-device standard and a test with a safety factor.',
+  'These notes do not replace local codes, the shop’s safety procedures or licensed practice; where they differ, those govern.',
+];
+
+const INK = '#1e2126';
+const MUTED = '#5b6169';
+const RULE = '#c9cdd2';
+const ACCENT = '#b8632f';
+const BAND = '#23272d';
+
+const si = (v: number, unit: string, digits: number) => `${formatNumber(v, digits)}${UNIT_SPACE}${unit}`;
+
+/** Engineering notation with an SI prefix, e.g. 0.0123 H → 12.3 mH. */
+function eng(v: number | undefined, unit: string, digits = 3): string {
+  if (v === undefined || !Number.isFinite(v)) return '—';
+  if (v === 0) return `0${UNIT_SPACE}${unit}`;
+  const prefixes: [number, string][] = [[1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n']];
+  const [scale, p] = prefixes.find(([s]) => Math.abs(v) >= s) ?? prefixes[prefixes.length - 1];
+  const scaled = v / scale;
+  const decimals = Math.max(0, digits - 1 - Math.floor(Math.log10(Math.abs(scaled))));
+  return `${formatNumber(scaled, decimals)}${UNIT_SPACE}${p}${unit}`;
+}
+
+export function wireLabel(result: BuildSheet): string {
+  const w = result.wire;
+  const size = w.size.standard === 'AWG' ? `AWG ${w.size.gauge}` : `${formatNumber(w.size.diameter * 1000, 3)} mm`;
+  return `${w.conductor === 'copper' ? 'Copper' : 'Aluminium'} ${size}, grade ${w.grade}`;
+}
+
+function barcodePng(text: string): Promise<Buffer> {
+  return bwipjs.toBuffer({ bcid: 'code128', text, scale: 3, height: 12, includetext: false, paddingwidth: 10, paddingheight: 4 });
+}
+function qrPng(text: string): Promise<Buffer> {
+  return bwipjs.toBuffer({ bcid: 'qrcode', text, scale: 3 });
+}
+
+/** Renders one traveler to PDF bytes. */
+export async function renderTraveler(d: TravelerData): Promise<Buffer> {
+  const [barcode, qr] = await Promise.all([barcodePng(d.workOrder.number), qrPng(d.url)]);
+  const doc = new PDFDocument({
+    size: d.paper === 'LETTER' ? 'LETTER' : 'A4',
+    margins: { top: 36, bottom: 40, left: 40, right: 40 },
+    info: { Title: `Traveler ${d.workOrder.number}`, Author: d.shopName, Subject: `${d.order.number} line ${d.line.lineNo}`, Creator: 'Spoolwright' },
+    bufferPages: true,
+  });
+  for (const [name, file] of Object.entries(FONT_FILES)) doc.registerFont(name, file);
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+
+  const left = doc.page.margins.left;
+  const width = doc.page.width - left - doc.page.margins.right;
+
+  /** Text with per-character font fallback, at (x, y) or flowing from the current position. */
+  const write = (text: string, opts: { font?: FontName; size?: number; color?: string; x?: number; y?: number; width?: number; align?: 'left' | 'right' | 'center' } = {}) => {
+    const runs = fontRuns(text, opts.font ?? 'Barlow');
+    doc.fontSize(opts.size ?? 9).fillColor(opts.color ?? INK);
+    runs.forEach((run, i) => {
+      doc.font(run.font);
+      const more = i < runs.length - 1;
+      if (i === 0 && opts.x !== undefined) doc.text(run.text, opts.x, opts.y, { width: opts.width, align: opts.align, continued: more, lineBreak: opts.width !== undefined });
+      else doc.text(run.text, { continued: more, width: opts.width, align: opts.align });
+    });
+  };
+
+  /** A small warning triangle, drawn (no font has to carry it). */
+  const mark = (x: number, y: number) => {
+    doc.save().polygon([x + 4, y + 1.5], [x + 8.5, y + 9], [x - 0.5, y + 9]).fill(ACCENT).restore();
+  };
+
+  const ensureSpace = (h: number) => {
+    if (doc.y + h > doc.page.height - doc.page.margins.bottom) {
+      doc.addPage();
+      doc.y = doc.page.margins.top;
+    }
+  };
+
+  /** A section heading, kept on the same page as the first rows under it. */
+  const sectionTitle = (title: string, keepWith = 60) => {
+    ensureSpace(20 + keepWith);
+    doc.moveDown(0.6);
+    const y = doc.y;
+    doc.rect(left, y, 3, 12).fill(ACCENT);
+    write(title.toUpperCase(), { font: 'Barlow-Bold', size: 9.5, x: left + 8, y: y + 1, color: INK });
+    doc.y = y + 17;
+  };
+
+  // ── Header band ──────────────────────────────────────────────────────────────────────────
+  const top = doc.page.margins.top;
+  doc.rect(left, top, width, 74).fill(BAND);
+  doc.rect(left, top + 74, width, 3).fill(ACCENT);
+  write(d.shopName, { font: 'Barlow-SemiBold', size: 11, color: '#ffffff', x: left + 12, y: top + 10 });
+  write('TRAVELER · WORK ORDER', { font: 'Barlow-SemiBold', size: 8, color: '#c8ccd1', x: left + 12, y: top + 28 });
+  write(d.workOrder.number, { font: 'Barlow-Bold', size: 24, color: '#ffffff', x: left + 12, y: top + 40 });
+  const bcW = 190;
+  doc.rect(left + width - bcW - 74, top + 8, bcW, 58).fill('#ffffff');
+  doc.image(barcode, left + width - bcW - 70, top + 12, { fit: [bcW - 8, 50], align: 'center', valign: 'center' });
+  doc.rect(left + width - 66, top + 8, 58, 58).fill('#ffffff');
+  doc.image(qr, left + width - 62, top + 12, { fit: [50, 50] });
+  doc.y = top + 86;
+
+  // ── The job ──────────────────────────────────────────────────────────────────────────────
+  const kv = (pairs: [string, string][], cols: number) => {
+    const colW = width / cols;
+    const startY = doc.y;
+    let maxY = startY;
+    pairs.forEach(([k, v], i) => {
+      const x = left + (i % cols) * colW;
+      const y = startY + Math.floor(i / cols) * 28;
+      write(k, { size: 7.5, color: MUTED, x, y, width: colW - 8 });
+      write(v, { font: 'Barlow-SemiBold', size: 10, x, y: y + 10, width: colW - 8 });
+      maxY = Math.max(maxY, y + 28);
+    });
+    doc.y = maxY;
+  };
+  kv(
+    [
+      ['Customer', d.order.customerName],
+      ['Order · customer PO', `${d.order.number} · ${d.order.purchaseOrder}`],
+      ['Quantity in this work order', `${d.workOrder.quantity} units`],
+      ['Due', d.workOrder.dueDate ?? 'not set'],
+      ['Priority', d.workOrder.priority],
+      ['Customer part number', d.line.customerPartNumber || '—'],
+    ],
+    3,
+  );
+  write('Line', { size: 7.5, color: MUTED, x: left, y: doc.y, width });
+  write(`${d.line.lineNo}. ${d.line.title}`, { font: 'Barlow-SemiBold', size: 10, x: left, y: doc.y + 1, width });
+
+  // ── Build ────────────────────────────────────────────────────────────────────────────────
+  const { spec, result: r } = d.sheet;
+  const u = d.units;
+  sectionTitle(`Build — sheet v${d.sheet.version}${d.sheet.approvedBy ? `, approved by ${d.sheet.approvedBy}` : ''}`);
+  const rTol = d.line.tolerancePercent / 100;
+  const pullingLength = r.wireLength * d.workOrder.quantity * (1 + d.scrapAllowancePercent / 100);
+  const pullingMass = r.wireMass * d.workOrder.quantity * (1 + d.scrapAllowancePercent / 100);
+  const len = (m: number) => formatLength(m, u.lengthUnit);
+  const rows: [string, string, string][] = [
+    ['Magnet wire', wireLabel(r), `bare ${si(r.wire.bareDiameter * 1000, 'mm', 3)}`],
+    ['Overall diameter (insulated)', len(r.wire.overallDiameter), si(r.wire.overallDiameter * 1000, 'mm', 3)],
+    ['Winding pattern', spec.pattern, spec.pattern === 'random' && spec.fillFactor ? `fill ${formatNumber(spec.fillFactor, 2)}` : ''],
+    ['Turns per layer × layers', `${r.turnsPerLayer} × ${r.layers}`, ''],
+    ['Total turns', formatNumber(r.turns, 0), ''],
+    ['Bobbin: inner Ø / outer Ø limit / traverse', `${len(spec.bobbin.innerDiameter)} / ${len(spec.bobbin.outerDiameter)} / ${len(spec.bobbin.length)}`, `${si(spec.bobbin.innerDiameter * 1000, 'mm', 2)} / ${si(spec.bobbin.outerDiameter * 1000, 'mm', 2)} / ${si(spec.bobbin.length * 1000, 'mm', 2)}`],
+    ['Built outer diameter', len(r.outerDiameter), si(r.outerDiameter * 1000, 'mm', 2)],
+    ['Lead length (both leads)', len(spec.leadLength ?? 0), si((spec.leadLength ?? 0) * 1000, 'mm', 0)],
+    ['Wire per unit', `${si(r.wireLength, 'm', 1)}, ${si(r.wireMass * 1000, 'g', 1)}`, ''],
+    [`Wire to pull for ${d.workOrder.quantity} (+${d.scrapAllowancePercent} % scrap)`, `${si(pullingLength, 'm', 0)}, ${si(pullingMass, 'kg', 3)}`, ''],
+    ['R at 20 °C, nominal (tolerance band)', `${eng(r.resistance20, 'Ω')} ± ${d.line.tolerancePercent} %`, `${eng(r.resistance20 * (1 - rTol), 'Ω')} … ${eng(r.resistance20 * (1 + rTol), 'Ω')}`],
+    ['Supply', spec.drive.kind === 'voltage' ? si(spec.drive.volts, 'V', 1) : si(spec.drive.amps, 'A', 3), `duty ${formatNumber(spec.dutyCycle * 100, 0)} %`],
+    ['Current and power, hot', `${eng(r.currentHot, 'A')}, ${eng(r.powerHot, 'W')}`, `${formatNumber(r.ampereTurnsHot, 0)} ampere-turns`],
+    ['Winding temperature vs class', `${formatTemperature(r.windingTemperature, u.temperatureUnit)} (rise ${formatTemperatureDifference(r.temperatureRise, u.temperatureUnit)}), class ${spec.insulationClass}`, `${si(r.windingTemperature, '°C', 1)} at ${si(r.ambient, '°C', 0)} ambient`],
+    r.pullForce !== undefined
+      ? ['Expected pull at the gap', eng(r.pullForce, 'N'), `gap flux density ${eng(r.gapFluxDensity, 'T')}`]
+      : ['Expected field at the centre (air core)', eng(r.centreField, 'T'), ''],
+    ['Inductance', eng(r.inductance, 'H'), `L/R ${eng(r.timeConstant, 's')}`],
+  ];
+  const c1 = 190;
+  const c2 = 170;
+  const c3 = width - c1 - c2;
+  write('Quantity', { size: 7.5, color: MUTED, x: left, y: doc.y });
+  write(`Value (${u.lengthUnit}, °${u.temperatureUnit})`, { size: 7.5, color: MUTED, x: left + c1, y: doc.y });
+  write('SI / detail', { size: 7.5, color: MUTED, x: left + c1 + c2, y: doc.y });
+  doc.y += 11;
+  for (const [k, v, s] of rows) {
+    ensureSpace(16);
+    const y = doc.y;
+    doc.moveTo(left, y).lineTo(left + width, y).lineWidth(0.5).strokeColor(RULE).stroke();
+    write(k, { size: 8.5, color: MUTED, x: left, y: y + 3, width: c1 - 6 });
+    write(v, { font: 'Barlow-SemiBold', size: 9, x: left + c1, y: y + 3, width: c2 - 6 });
+    write(s, { size: 8.5, color: MUTED, x: left + c1 + c2, y: y + 3, width: c3 });
+    doc.y = Math.max(doc.y, y + 15);
+  }
+  if (r.warnings.length) {
+    ensureSpace(14 * r.warnings.length + 6);
+    doc.moveDown(0.3);
+    for (const w of r.warnings) {
+      mark(left, doc.y);
+      write(w.message, { size: 8.5, color: '#8a3b12', x: left + 12, y: doc.y, width: width - 12 });
+    }
+  }
+
+  // ── Wire reserved ────────────────────────────────────────────────────────────────────────
+  sectionTitle('Wire reserved from stock');
+  if (!d.spoolLots.length) write('No spool is reserved for this work order: ask the engineer before winding.', { size: 9, x: left, y: doc.y, width });
+  for (const s of d.spoolLots) write(`Lot ${s.lot} (${s.supplier}) — ${si(s.mass, 'kg', 3)}`, { size: 9, x: left, y: doc.y, width });
+  if (d.line.terminationNotes || d.line.leadNotes) {
+    sectionTitle('Termination and leads');
+    if (d.line.terminationNotes) write(d.line.terminationNotes, { size: 9, x: left, y: doc.y, width });
+    if (d.line.leadNotes) write(d.line.leadNotes, { size: 9, x: left, y: doc.y, width });
+  }
+
+  // ── Sign-off per stage ───────────────────────────────────────────────────────────────────
+  const grid = (headers: string[], widths: number[], count: number, firstCol: (i: number) => string, rowH = 20) => {
+    ensureSpace(14 + rowH * Math.min(count, 3));
+    let y = doc.y;
+    let x = left;
+    headers.forEach((h, i) => {
+      write(h, { size: 7.5, color: MUTED, x: x + 3, y });
+      x += widths[i];
+    });
+    y += 11;
+    for (let i = 0; i < count; i++) {
+      if (y + rowH > doc.page.height - doc.page.margins.bottom) {
+        doc.addPage();
+        y = doc.page.margins.top;
+      }
+      x = left;
+      widths.forEach((w, c) => {
+        doc.rect(x, y, w, rowH).lineWidth(0.6).strokeColor(RULE).stroke();
+        if (c === 0) write(firstCol(i), { font: 'Barlow-SemiBold', size: 8.5, x: x + 4, y: y + 6, width: w - 8 });
+        x += w;
+      });
+      y += rowH;
+    }
+    doc.y = y + 4;
+  };
+  sectionTitle('Sign-off at each stage');
+  grid(['Stage', 'Operator', 'Date', 'Station', 'Notes'], [100, 110, 70, 80, width - 360], d.stages.length, (i) => d.stages[i].label);
+
+  // ── Test record by hand ──────────────────────────────────────────────────────────────────
+  sectionTitle(`Tests by hand — enter them in Spoolwright too (R at 20 °C within ${eng(r.resistance20 * (1 - rTol), 'Ω')} … ${eng(r.resistance20 * (1 + rTol), 'Ω')})`);
+  const testRows = Math.min(d.workOrder.quantity, 12);
+  grid(['Serial', 'R measured (Ω)', 'at °C', 'Hi-pot V / s / leakage', 'IR (MΩ)', 'Pass / fail', 'Initials'], [70, 80, 50, 120, 60, 60, width - 440], testRows, () => '');
+
+  // ── Cautions ─────────────────────────────────────────────────────────────────────────────
+  ensureSpace(110);
+  doc.moveDown(0.5);
+  const boxY = doc.y;
+  write('CAUTIONS', { font: 'Barlow-Bold', size: 9, color: '#8a3b12', x: left + 10, y: boxY + 8 });
+  doc.y = boxY + 22;
+  for (const c of CAUTIONS) {
+    mark(left + 10, doc.y);
+    write(c, { size: 8.5, x: left + 22, y: doc.y, width: width - 32 });
+  }
+  const boxH = doc.y - boxY + 6;
+  doc.rect(left, boxY, width, boxH).lineWidth(1.2).strokeColor(ACCENT).stroke();
+
+  // ── Footer on every page ─────────────────────────────────────────────────────────────────
+  const range = doc.bufferedPageRange();
+  for (let i = range.start; i < range.start + range.count; i++) {
+    doc.switchToPage(i);
+    const y = doc.page.height - doc.page.margins.bottom + 14;
+    const oldBottom = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0;
+    write(
+      `${d.workOrder.number} · build sheet v${d.sheet.version} · engine ${d.sheet.engineVersion} · printed ${d.generatedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC by ${d.generatedBy} · page ${i + 1} of ${range.count}`,
+      { size: 7, color: MUTED, x: left, y, width, align: 'center' },
+    );
+    doc.page.margins.bottom = oldBottom;
+  }
+  doc.end();
+  return done;
+}
