@@ -7,7 +7,24 @@
  */
 import { ROLES, type Role } from '../contracts/roles';
 
-export type ScreenId = 'home' | 'users';
+export type ScreenId =
+  | 'home'
+  | 'orders'
+  | 'orderNew'
+  | 'order'
+  | 'orderEdit'
+  | 'customers'
+  | 'customerNew'
+  | 'customer'
+  | 'customerEdit'
+  | 'users';
+
+/** Who reads orders (a customer only its own company's: the server filters). */
+const ORDER_READERS: readonly Role[] = ['office', 'engineer', 'foreman', 'shipping', 'admin', 'customer'];
+/** Who reads the customer companies. */
+const CUSTOMER_READERS: readonly Role[] = ['office', 'engineer', 'foreman', 'shipping', 'admin'];
+/** Who enters and changes orders and customers. */
+const ORDER_WRITERS: readonly Role[] = ['office', 'admin'];
 
 export type Screen = {
   id: ScreenId;
@@ -20,6 +37,14 @@ export type Screen = {
 
 export const SCREENS: readonly Screen[] = [
   { id: 'home', path: '/', label: 'Home', roles: ROLES, inNav: true },
+  { id: 'orders', path: '/orders', label: 'Orders', roles: ORDER_READERS, inNav: true },
+  { id: 'orderNew', path: '/orders/new', label: 'New order', roles: ORDER_WRITERS, inNav: false },
+  { id: 'order', path: '/orders/:id', label: 'Order', roles: ORDER_READERS, inNav: false },
+  { id: 'orderEdit', path: '/orders/:id/edit', label: 'Edit order', roles: ORDER_WRITERS, inNav: false },
+  { id: 'customers', path: '/customers', label: 'Customers', roles: CUSTOMER_READERS, inNav: true },
+  { id: 'customerNew', path: '/customers/new', label: 'New customer', roles: ORDER_WRITERS, inNav: false },
+  { id: 'customer', path: '/customers/:id', label: 'Customer', roles: CUSTOMER_READERS, inNav: false },
+  { id: 'customerEdit', path: '/customers/:id/edit', label: 'Edit customer', roles: ORDER_WRITERS, inNav: false },
   { id: 'users', path: '/users', label: 'Users', roles: ['admin'], inNav: true },
 ];
 

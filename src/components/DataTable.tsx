@@ -78,9 +78,11 @@ export type DataTableProps<T> = {
   getRowId?: (row: T) => string;
   toolbar?: ReactNode;
   empty?: ReactNode;
+  /** Extra classes for a row (for example a stripe on late orders — always with a word in a cell too). */
+  rowClassName?: (row: T) => string;
 };
 
-export function DataTable<T>({ data, columns, noun, nounPlural = `${noun}s`, csvName, caption, initialSorting = [], getRowId, toolbar, empty }: DataTableProps<T>) {
+export function DataTable<T>({ data, columns, noun, nounPlural = `${noun}s`, csvName, caption, initialSorting = [], getRowId, toolbar, empty, rowClassName }: DataTableProps<T>) {
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
   const [globalFilter, setGlobalFilter] = useState('');
   const [columnFilters, setColumnFilters] = useState<ColumnFiltersState>([]);
@@ -198,7 +200,7 @@ export function DataTable<T>({ data, columns, noun, nounPlural = `${noun}s`, csv
           </thead>
           <tbody>
             {rows.map((row) => (
-              <tr key={row.id} className="border-b border-graphite-100 last:border-b-0 even:bg-graphite-50/60 hover:bg-copper-50">
+              <tr key={row.id} className={`border-b border-graphite-100 last:border-b-0 even:bg-graphite-50/60 hover:bg-copper-50 ${rowClassName?.(row.original) ?? ''}`}>
                 {row.getVisibleCells().map((cell) => (
                   <td key={cell.id} className={`px-2.5 py-1.5 align-middle ${cell.column.columnDef.meta?.align === 'right' ? 'text-right' : ''}`}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}

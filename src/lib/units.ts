@@ -30,6 +30,22 @@ export function toMetres(value: number, unit: LengthUnit): number {
 
 export const lengthSymbol = (unit: LengthUnit) => (unit === 'mm' ? 'mm' : 'in');
 
+// ── areas (a length unit squared) ───────────────────────────────────────────
+
+/** Square metres → mm² or in². */
+export function fromSquareMetres(m2: number, unit: LengthUnit): number {
+  const perUnit = toMetres(1, unit);
+  return m2 / (perUnit * perUnit);
+}
+
+/** mm² or in² → square metres. */
+export function toSquareMetres(value: number, unit: LengthUnit): number {
+  const perUnit = toMetres(1, unit);
+  return value * perUnit * perUnit;
+}
+
+export const areaSymbol = (unit: LengthUnit) => `${lengthSymbol(unit)}²`;
+
 // ── temperatures (points on the scale) ──────────────────────────────────────
 
 /** °C → the user's temperature unit. */
@@ -83,6 +99,14 @@ export function formatLength(metres: number | null | undefined, unit: LengthUnit
   return `${formatNumber(fromMetres(metres, unit), digits)}${UNIT_SPACE}${lengthSymbol(unit)}`;
 }
 
+/** Decimals for areas: 0.01 mm², 0.00001 in² (≈ 0.0065 mm²). */
+export const DEFAULT_AREA_DIGITS: Record<LengthUnit, number> = { mm: 2, in: 5 };
+
+export function formatArea(m2: number | null | undefined, unit: LengthUnit, digits = DEFAULT_AREA_DIGITS[unit]): string {
+  if (!isNumber(m2)) return MISSING;
+  return `${formatNumber(fromSquareMetres(m2, unit), digits)}${UNIT_SPACE}${areaSymbol(unit)}`;
+}
+
 export function formatTemperature(celsius: number | null | undefined, unit: TemperatureUnit, digits = 1): string {
   if (!isNumber(celsius)) return MISSING;
   return `${formatNumber(fromCelsius(celsius, unit), digits)}${UNIT_SPACE}${temperatureSymbol(unit)}`;
@@ -101,7 +125,9 @@ export function unitFormatters(prefs: UnitPreferences) {
     temperature: (celsius: number | null | undefined, digits?: number) => formatTemperature(celsius, prefs.temperatureUnit, digits),
     temperatureDifference: (kelvin: number | null | undefined, digits?: number) =>
       formatTemperatureDifference(kelvin, prefs.temperatureUnit, digits),
+    area: (m2: number | null | undefined, digits?: number) => formatArea(m2, prefs.lengthUnit, digits),
     lengthSymbol: lengthSymbol(prefs.lengthUnit),
+    areaSymbol: areaSymbol(prefs.lengthUnit),
     temperatureSymbol: temperatureSymbol(prefs.temperatureUnit),
     temperatureDifferenceSymbol: temperatureDifferenceSymbol(prefs.temperatureUnit),
   };

@@ -112,3 +112,16 @@ describe('formatters bound to preferences', () => {
     expect(metric.temperatureDifferenceSymbol).toBe('K');
   });
 });
+
+describe('areas', () => {
+  it('1 in² is 645.16 mm² exactly (25.4² from NIST SP 811 appendix B; mathjs agrees)', async () => {
+    const { fromSquareMetres, toSquareMetres, formatArea } = await import('../../src/lib/units');
+    expect(unit(1, 'inch^2').toNumber('mm^2')).toBeCloseTo(645.16, 9); // the reference itself
+    expect(fromSquareMetres(toSquareMetres(1, 'in'), 'mm')).toBeCloseTo(645.16, 9);
+    expect(toSquareMetres(95, 'mm')).toBeCloseTo(9.5e-5, 15);
+    expect(fromSquareMetres(9.5e-5, 'mm')).toBeCloseTo(95, 9);
+    expect(formatArea(9.5e-5, 'mm')).toBe(`95.00${NBSP}mm²`);
+    expect(formatArea(toSquareMetres(0.5, 'in'), 'in')).toBe(`0.50000${NBSP}in²`);
+    expect(formatArea(null, 'mm')).toBe(MISSING);
+  });
+});

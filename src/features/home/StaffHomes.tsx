@@ -1,14 +1,16 @@
 /** The homes of office, foreman, floor and shipping: their work, their safety notes, their units. */
 import type { SessionUser } from '../../contracts/auth';
+import { OrdersHomePanel } from '../orders';
 import { AccountPanel, DutiesPanel, HomeFrame, SAFETY, SafetyPanel } from './parts';
 
 export function OfficeHome({ user }: { user: SessionUser }) {
   return (
     <HomeFrame user={user}>
       <div className="grid gap-5 lg:grid-cols-2">
+        <OrdersHomePanel />
         <DutiesPanel user={user} />
-        <AccountPanel user={user} />
       </div>
+      <AccountPanel user={user} />
     </HomeFrame>
   );
 }

@@ -1,0 +1,2 @@
+/** Route module for /customers (lazy-loaded): the company list. */
+export { CustomersPage as Component } from './CustomersPage';

@@ -1,0 +1,2 @@
+/** Route module for /orders/:id/edit (lazy-loaded; office and admin; entered orders only). */
+export { EditOrderPage as Component } from './OrderFormPage';

@@ -1,0 +1,2 @@
+/** Route module for /orders/new (lazy-loaded; office and admin). */
+export { NewOrderPage as Component } from './OrderFormPage';

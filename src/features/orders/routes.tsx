@@ -1,0 +1,2 @@
+/** Route module for /orders (lazy-loaded): the order list. */
+export { OrdersPage as Component } from './OrdersPage';
