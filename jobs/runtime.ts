@@ -3,6 +3,7 @@ import type { Deps } from '../server/deps';
 import { workerConnection } from './connection';
 import { dispatchDue } from './dispatcher';
 import { mailProcessor } from './processors/mail';
+import { travelerProcessor } from './processors/traveler';
 import { createQueues, QUEUES } from './queues';
 
 export type WorkerOptions = { dispatchIntervalMs?: number; log?: (msg: string) => void };
@@ -17,7 +18,11 @@ export function startWorkers(deps: Deps, opts: WorkerOptions = {}) {
   const queues = createQueues(workerConnection(deps.config.redisUrl));
   // A stalled job (its worker died) is handed to another worker after about lockDuration.
   const common = { connection, lockDuration: 15_000, stalledInterval: 5_000, maxStalledCount: 2 };
-  const workers = [new Worker(QUEUES.mail.name, mailProcessor(deps), { ...common, concurrency: 4 })];
+  const workers = [
+    new Worker(QUEUES.mail.name, mailProcessor(deps), { ...common, concurrency: 4 }),
+    // PDF drawing is CPU work: one at a time per process; run more workers to print faster.
+    new Worker(QUEUES.travelers.name, travelerProcessor(deps), { ...common, concurrency: 1 }),
+  ];
   for (const w of workers) {
     w.on('failed', (job, err) => log(`${w.name} job ${job?.id} failed (attempt ${job?.attemptsMade}): ${err.message}`));
     w.on('error', () => {});

@@ -17,6 +17,10 @@ import { attachmentsRouter } from './attachments/router';
 import { calculationsRouter } from './calculations/router';
 import { jobsRouter } from './jobs/router';
 import { notificationsRouter } from './notifications/router';
+import { travelersRouter } from './travelers/router';
+import { buildSheetsRouter } from './build-sheets/router';
+import { workOrdersRouter } from './work-orders/router';
+import { stockRouter } from './stock/router';
 
 const clientDir = path.resolve(import.meta.dirname, '..', 'dist', 'client');
 
@@ -31,6 +35,10 @@ export function apiRouters(deps: Deps): Router[] {
     calculationsRouter(),
     jobsRouter(deps),
     notificationsRouter(deps),
+    buildSheetsRouter(deps),
+    workOrdersRouter(deps.db),
+    stockRouter(deps.db),
+    travelersRouter(deps),
   ];
 }
 

@@ -81,6 +81,44 @@ ${button(link, 'Follow the order')}`,
     );
     return { subject, text, html };
   },
+
+  order_released(p, ctx) {
+    const lines = (p.lines as Line[]) ?? [];
+    const line = p.line as Line | undefined;
+    const what = line ? `line ${line.lineNo}, ${line.quantity} × ${line.title}` : 'your order';
+    const batches = Number(p.workOrderCount ?? 0);
+    const subject = `In production: your PO ${p.purchaseOrder} (our ${p.orderNumber})`;
+    const link = orderLink(ctx, p);
+    const text = [
+      `Your order is on the winding floor.`,
+      ``,
+      `We released ${what} to production on ${fmtDate(p.releasedAt)}${batches > 1 ? `, in ${batches} batches` : ''}.`,
+      ``,
+      `Your purchase order: ${p.purchaseOrder}`,
+      `Our order number:    ${p.orderNumber}`,
+      `Requested ship date: ${fmtDate(p.dueDate)}`,
+      ``,
+      `Lines on the order:`,
+      linesText(lines),
+      ``,
+      `What happens next: each coil is wound, terminated, impregnated and tested against its build`,
+      `sheet. We will write again when it ships, with the tracking number. Other lines of the order`,
+      `follow as their build sheets are released.`,
+      ``,
+      `Follow the order: ${link}`,
+      ``,
+      `— ${ctx.shopName}`,
+    ].join('\n');
+    const html = frame(
+      ctx,
+      'Your order is in production',
+      `<p>We released <strong>${esc(what)}</strong> of your purchase order <strong>${esc(p.purchaseOrder)}</strong> (our order <strong>${esc(p.orderNumber)}</strong>) to the winding floor on <strong>${esc(fmtDate(p.releasedAt))}</strong>${batches > 1 ? `, in ${batches} batches` : ''}. Requested ship date: <strong>${esc(fmtDate(p.dueDate))}</strong>.</p>
+${linesHtml(lines)}
+<p><strong>What happens next:</strong> each coil is wound, terminated, impregnated and tested against its build sheet. We will write again when it ships, with the tracking number. Other lines of the order follow as their build sheets are released.</p>
+${button(link, 'Follow the order')}`,
+    );
+    return { subject, text, html };
+  },
 };
 
 export const MAIL_KINDS = Object.keys(renderers);

@@ -23,6 +23,12 @@ import { NOTIFICATION_STATUSES } from '../../src/contracts/jobs';
 import { LENGTH_UNITS, TEMPERATURE_UNITS } from '../../src/contracts/auth';
 import type { Address } from '../../src/contracts/customers';
 import { ORDER_EVENT_KINDS, ORDER_STATUSES, type Requirement } from '../../src/contracts/orders';
+import type { CoilSpec, CoilTarget } from '../../src/contracts/coil';
+import { BUILD_SHEET_STATUSES } from '../../src/contracts/build-sheet-status';
+import { STAGES } from '../../src/contracts/stages';
+import { CONDUCTORS, WIRE_STANDARDS, type Conductor } from '../../src/contracts/stock';
+import { PRIORITY_DEFAULT } from '../../src/contracts/work-orders';
+import type { BuildSheet } from '../coil/types';
 
 export const roleEnum = pgEnum('role', ROLES);
 export const lengthUnitEnum = pgEnum('length_unit', LENGTH_UNITS);
@@ -238,4 +244,176 @@ export const notifications = pgTable(
     messageId: varchar('message_id', { length: 300 }),
   },
   (t) => [index('notifications_due_idx').on(t.status, t.dueAt), index('notifications_order_idx').on(t.orderId)],
+);
+
+// ── Build sheets, work orders, wire stock ──────────────────────────────────────────────────
+
+export const buildSheetStatusEnum = pgEnum('build_sheet_status', BUILD_SHEET_STATUSES);
+
+/**
+ * Versions of how to wind one order line: the spec (SI), the engine's full result as computed
+ * then, and who drafted, approved and released it. Approved and released rows never change
+ * (a change is a new draft version); a released one becomes superseded when a newer version of
+ * the line is released. At most one released version per line.
+ */
+export const buildSheets = pgTable(
+  'build_sheets',
+  {
+    id: serial('id').primaryKey(),
+    lineId: integer('line_id')
+      .notNull()
+      .references(() => orderLines.id, { onDelete: 'cascade' }),
+    /** 1, 2, 3 … per line. */
+    version: integer('version').notNull(),
+    status: buildSheetStatusEnum('status').notNull().default('draft'),
+    spec: jsonb('spec').$type<CoilSpec>().notNull(),
+    /** The solve target the engineer worked to, if any. */
+    target: jsonb('target').$type<CoilTarget>(),
+    /** The engine's BuildSheet as computed when drafted; never recomputed. */
+    result: jsonb('result').$type<BuildSheet>().notNull(),
+    engineVersion: varchar('engine_version', { length: 20 }).notNull(),
+    notes: text('notes').notNull().default(''),
+    overrideReason: text('override_reason'),
+    /** Why it was released although the wire stock was short. */
+    shortStockNote: text('short_stock_note'),
+    draftedBy: integer('drafted_by').references(() => users.id, { onDelete: 'set null' }),
+    draftedAt: timestamp('drafted_at', { withTimezone: true }).notNull().defaultNow(),
+    approvedBy: integer('approved_by').references(() => users.id, { onDelete: 'set null' }),
+    approvedAt: timestamp('approved_at', { withTimezone: true }),
+    releasedBy: integer('released_by').references(() => users.id, { onDelete: 'set null' }),
+    releasedAt: timestamp('released_at', { withTimezone: true }),
+    supersededAt: timestamp('superseded_at', { withTimezone: true }),
+  },
+  (t) => [
+    uniqueIndex('build_sheets_line_version_unique').on(t.lineId, t.version),
+    uniqueIndex('build_sheets_one_released_per_line').on(t.lineId).where(sql`${t.status} = 'released'`),
+  ],
+);
+
+export const workOrderStageEnum = pgEnum('work_order_stage', STAGES);
+
+/** Shop-wide work-order numbers: never reset, never reused (a rolled-back release leaves a gap). */
+export const workOrderNumberSeq = pgSequence('work_order_number_seq', { startWith: 1 });
+
+/** A batch of one line's units released from a build sheet; it travels the shop through the stages. */
+export const workOrders = pgTable(
+  'work_orders',
+  {
+    id: serial('id').primaryKey(),
+    /** "WO-<yy>-<sequence>", from work_order_number_seq. */
+    number: varchar('number', { length: 24 }).notNull(),
+    orderId: integer('order_id')
+      .notNull()
+      .references(() => orders.id, { onDelete: 'restrict' }),
+    lineId: integer('line_id')
+      .notNull()
+      .references(() => orderLines.id, { onDelete: 'restrict' }),
+    buildSheetId: integer('build_sheet_id')
+      .notNull()
+      .references(() => buildSheets.id, { onDelete: 'restrict' }),
+    stage: workOrderStageEnum('stage').notNull().default('ready'),
+    quantity: integer('quantity').notNull(),
+    dueDate: date('due_date', { mode: 'string' }).notNull(),
+    /** Higher goes first (PRIORITIES in src/contracts/work-orders.ts). */
+    priority: integer('priority').notNull().default(PRIORITY_DEFAULT),
+    assigneeId: integer('assignee_id').references(() => users.id, { onDelete: 'set null' }),
+    /** Optimistic locking: every change bumps it; a change naming an older one is refused. */
+    version: integer('version').notNull().default(1),
+    ...timestamps,
+  },
+  (t) => [
+    uniqueIndex('work_orders_number_unique').on(t.number),
+    index('work_orders_stage_due_idx').on(t.stage, t.dueDate),
+    index('work_orders_order_idx').on(t.orderId),
+    index('work_orders_line_idx').on(t.lineId),
+  ],
+);
+
+/** Every stage a work order entered (the release: from null to ready). Never rewritten. */
+export const workOrderEvents = pgTable(
+  'work_order_events',
+  {
+    id: bigserial('id', { mode: 'number' }).primaryKey(),
+    workOrderId: integer('work_order_id')
+      .notNull()
+      .references(() => workOrders.id, { onDelete: 'cascade' }),
+    at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    fromStage: workOrderStageEnum('from_stage'),
+    toStage: workOrderStageEnum('to_stage').notNull(),
+    note: text('note').notNull().default(''),
+    /** The station it happened at; stations arrive with the floor issue (no foreign key yet). */
+    stationId: integer('station_id'),
+  },
+  (t) => [index('work_order_events_wo_idx').on(t.workOrderId, t.at)],
+);
+
+export const conductorEnum = pgEnum('conductor', CONDUCTORS as [Conductor, ...Conductor[]]);
+export const wireStandardEnum = pgEnum('wire_standard', WIRE_STANDARDS);
+
+/** Spools of magnet wire in stock. Masses in kg; a metric size's diameter in m. */
+export const spools = pgTable(
+  'spools',
+  {
+    id: serial('id').primaryKey(),
+    conductor: conductorEnum('conductor').notNull(),
+    wireStandard: wireStandardEnum('wire_standard').notNull(),
+    /** AWG sizes: the gauge number; null for metric. */
+    awgGauge: integer('awg_gauge'),
+    /** Metric sizes: nominal bare diameter, m; null for AWG. */
+    diameter: doublePrecision('diameter'),
+    insulationGrade: integer('insulation_grade').notNull(),
+    supplier: varchar('supplier', { length: 120 }).notNull(),
+    lot: varchar('lot', { length: 60 }).notNull(),
+    /** Wire on the spool when received, kg. */
+    netMass: doublePrecision('net_mass').notNull(),
+    location: varchar('location', { length: 80 }).notNull().default(''),
+    receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
+    receivedBy: integer('received_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('spools_wire_idx').on(t.conductor, t.wireStandard, t.awgGauge, t.diameter, t.insulationGrade, t.receivedAt)],
+);
+
+/** Wire mass set aside on a spool for a work order, kg. Free mass = net mass − reservations. */
+export const spoolReservations = pgTable(
+  'spool_reservations',
+  {
+    id: serial('id').primaryKey(),
+    spoolId: integer('spool_id')
+      .notNull()
+      .references(() => spools.id, { onDelete: 'restrict' }),
+    workOrderId: integer('work_order_id')
+      .notNull()
+      .references(() => workOrders.id, { onDelete: 'cascade' }),
+    mass: doublePrecision('mass').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('spool_reservations_spool_idx').on(t.spoolId), index('spool_reservations_wo_idx').on(t.workOrderId)],
+);
+
+/**
+ * A printed traveler: one PDF per work order and build sheet, kept in the object store with its
+ * checksum. A newer build sheet on the work order makes the last traveler stale.
+ */
+export const travelers = pgTable(
+  'travelers',
+  {
+    id: serial('id').primaryKey(),
+    workOrderId: integer('work_order_id')
+      .notNull()
+      .references(() => workOrders.id, { onDelete: 'cascade' }),
+    buildSheetId: integer('build_sheet_id')
+      .notNull()
+      .references(() => buildSheets.id, { onDelete: 'restrict' }),
+    buildSheetVersion: integer('build_sheet_version').notNull(),
+    storageKey: varchar('storage_key', { length: 300 }).notNull(),
+    sha256: varchar('sha256', { length: 64 }).notNull(),
+    size: integer('size').notNull(),
+    pages: integer('pages').notNull(),
+    paper: varchar('paper', { length: 8 }).notNull(),
+    createdBy: integer('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('travelers_wo_sheet_unique').on(t.workOrderId, t.buildSheetId)],
 );

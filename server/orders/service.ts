@@ -12,7 +12,9 @@ import {
   type OrderSummary,
   type UpdateOrderRequest,
 } from '../../src/contracts/orders';
+import type { LineBuildSheetSummary } from '../../src/contracts/build-sheet-status';
 import * as attachmentRepo from '../attachments/repository';
+import { lineSheetSummaries } from '../build-sheets/essentials';
 import * as customerRepo from '../customers/repository';
 import type { Db, Tx } from '../db/client';
 import type { NotificationRecipient } from '../db/schema';
@@ -102,7 +104,7 @@ export async function listOrders(db: Db | Tx, viewer: SessionUser, query: Partia
   return rows.map(toSummary);
 }
 
-function toLine(l: repo.LineRow): OrderLineRecord {
+function toLine(l: repo.LineRow, buildSheet: LineBuildSheetSummary | null = null): OrderLineRecord {
   return {
     id: l.id,
     lineNo: l.lineNo,
@@ -113,7 +115,7 @@ function toLine(l: repo.LineRow): OrderLineRecord {
     tolerancePercent: l.tolerancePercent,
     terminationNotes: l.terminationNotes,
     leadNotes: l.leadNotes,
-    buildSheet: null,
+    buildSheet,
   };
 }
 
@@ -146,6 +148,7 @@ export async function getOrder(db: Db | Tx, viewer: SessionUser, id: number): Pr
   const events = await repo.listEvents(db, id);
   const names = await repo.userNames(db, [o.acknowledgedBy, o.createdBy]);
   const internal = viewer.role !== 'customer';
+  const sheets = await lineSheetSummaries(db, lines, { internal });
   const who = (uid: number | null) => (uid !== null && names.has(uid) ? { id: uid, name: names.get(uid)! } : null);
   const allEvents: OrderEventRecord[] = events.map(({ event: e, actorName }) => ({
     id: e.id,
@@ -166,7 +169,7 @@ export async function getOrder(db: Db | Tx, viewer: SessionUser, id: number): Pr
     }),
     cancelledAt: o.cancelledAt?.toISOString() ?? null,
     createdAt: o.createdAt.toISOString(),
-    lines: lines.map(toLine),
+    lines: lines.map((l) => toLine(l, sheets.get(l.id) ?? null)),
     attachments: files.map(({ attachment: a, uploaderName }) => ({
       id: a.id,
       lineId: a.lineId,
@@ -386,7 +389,7 @@ export async function moveOrder(db: Db, id: number, to: OrderStatus, actorId: nu
 export type NotificationSummary = { id: number; status: string; recipients: NotificationRecipient[]; reason: string | null };
 
 /** Who hears of an order: contacts asking for order notices, else the first contact with an address. */
-async function orderRecipients(tx: Tx, customerId: number): Promise<NotificationRecipient[]> {
+export async function orderRecipients(tx: Tx, customerId: number): Promise<NotificationRecipient[]> {
   const contacts = (await customerRepo.listContacts(tx, customerId)).filter((c) => c.email);
   const chosen = contacts.filter((c) => c.notifyOrders);
   return (chosen.length ? chosen : contacts.slice(0, 1)).map((c) => ({ name: c.name, email: c.email }));

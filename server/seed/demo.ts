@@ -4,6 +4,7 @@ import type { Db } from '../db/client';
 import { appMeta, customers, users } from '../db/schema';
 import { hashPassword } from '../users/service';
 import { demoOrdersStep } from './orders';
+import { demoBuildSheetsStep } from './build-sheets';
 
 /** The demo sign-ins: `<role>@spoolwright.test`, one per role, all with this password. */
 export const DEMO_PASSWORD = 'spoolwright-demo';
@@ -52,6 +53,8 @@ export const SEED_STEPS: Step[] = [
   },
   // Customers with contacts, orders in every status and a few drawings (server/seed/orders.ts).
   demoOrdersStep,
+  // Spools, build sheets drafted, approved and released to work orders (server/seed/build-sheets.ts).
+  demoBuildSheetsStep,
 ];
 
 /** Runs the steps not yet recorded, each in its own transaction with its record. */

@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 import { BobbinSchema, CoilSpecSchema, DriveSchema, MagneticCircuitSchema, WireSizeSchema } from './coil';
+import { lineBuildSheetSummary } from './build-sheet-status';
 
 export const ORDER_STATUSES = ['entered', 'acknowledged', 'in_production', 'partly_shipped', 'shipped', 'closed', 'cancelled'] as const;
 export type OrderStatus = (typeof ORDER_STATUSES)[number];
@@ -242,8 +243,11 @@ export const orderLineRecord = z.object({
   tolerancePercent: z.number(),
   terminationNotes: z.string(),
   leadNotes: z.string(),
-  /** null until engineering has one. */
-  buildSheet: z.null(),
+  /**
+   * null until engineering has drafted one; else the newest version's {id, version, status} and
+   * the released sheet's essentials (see lineBuildSheetSummary in build-sheets.ts).
+   */
+  buildSheet: lineBuildSheetSummary.nullable(),
 });
 export type OrderLineRecord = z.infer<typeof orderLineRecord>;
 

@@ -1,0 +1,2 @@
+/** Route module for /outbox (lazy-loaded; admins only). */
+export { OutboxPage as Component } from './OutboxPage';
