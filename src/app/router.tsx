@@ -6,7 +6,7 @@
 import { createBrowserRouter } from 'react-router';
 import { setUnauthorizedHandler, signInHref } from '../lib/api';
 import { queryClient } from '../lib/queryClient';
-import { SESSION_KEY, setSessionUser } from '../lib/session';
+import { SESSION_KEY, SIGNED_IN_ROUTE_ID, setSessionUser } from '../lib/session';
 import { requireScreen, requireSignedIn } from './guards';
 import { Layout, StartupFallback } from './Layout';
 import { NotFound } from './NotFound';
@@ -20,7 +20,7 @@ export const router = createBrowserRouter([
     HydrateFallback: StartupFallback,
   },
   {
-    id: 'signed-in',
+    id: SIGNED_IN_ROUTE_ID,
     path: '/',
     loader: requireSignedIn,
     Component: Layout,
@@ -40,7 +40,11 @@ export const router = createBrowserRouter([
           { path: 'customers/new', loader: requireScreen('customerNew'), lazy: () => import('../features/customers/newRoute') },
           { path: 'customers/:id', loader: requireScreen('customer'), lazy: () => import('../features/customers/detailRoute') },
           { path: 'customers/:id/edit', loader: requireScreen('customerEdit'), lazy: () => import('../features/customers/editRoute') },
+          { path: 'engineering', loader: requireScreen('engineering'), lazy: () => import('../features/engineering/routes') },
+          { path: 'engineering/lines/:id', loader: requireScreen('engineeringLine'), lazy: () => import('../features/engineering/lineRoute') },
+          { path: 'stock', loader: requireScreen('spools'), lazy: () => import('../features/stock/routes') },
           { path: 'users', loader: requireScreen('users'), lazy: () => import('../features/users/routes') },
+          { path: 'outbox', loader: requireScreen('outbox'), lazy: () => import('../features/outbox/routes') },
           { path: '*', Component: NotFound },
         ],
       },

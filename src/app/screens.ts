@@ -17,12 +17,18 @@ export type ScreenId =
   | 'customerNew'
   | 'customer'
   | 'customerEdit'
-  | 'users';
+  | 'users'
+  | 'outbox'
+  | 'engineering'
+  | 'engineeringLine'
+  | 'spools';
 
 /** Who reads orders (a customer only its own company's: the server filters). */
 const ORDER_READERS: readonly Role[] = ['office', 'engineer', 'foreman', 'shipping', 'admin', 'customer'];
 /** Who reads the customer companies. */
 const CUSTOMER_READERS: readonly Role[] = ['office', 'engineer', 'foreman', 'shipping', 'admin'];
+/** Who reads the engineering queue, order lines' build sheets and the wire stock (engineers and admins also write). */
+const SHEET_READERS: readonly Role[] = ['engineer', 'office', 'foreman', 'admin'];
 /** Who enters and changes orders and customers. */
 const ORDER_WRITERS: readonly Role[] = ['office', 'admin'];
 
@@ -45,7 +51,11 @@ export const SCREENS: readonly Screen[] = [
   { id: 'customerNew', path: '/customers/new', label: 'New customer', roles: ORDER_WRITERS, inNav: false },
   { id: 'customer', path: '/customers/:id', label: 'Customer', roles: CUSTOMER_READERS, inNav: false },
   { id: 'customerEdit', path: '/customers/:id/edit', label: 'Edit customer', roles: ORDER_WRITERS, inNav: false },
+  { id: 'engineering', path: '/engineering', label: 'Engineering', roles: SHEET_READERS, inNav: true },
+  { id: 'engineeringLine', path: '/engineering/lines/:id', label: 'Order line', roles: SHEET_READERS, inNav: false },
+  { id: 'spools', path: '/stock', label: 'Wire stock', roles: SHEET_READERS, inNav: true },
   { id: 'users', path: '/users', label: 'Users', roles: ['admin'], inNav: true },
+  { id: 'outbox', path: '/outbox', label: 'Outbox', roles: ['admin'], inNav: true },
 ];
 
 export function screen(id: ScreenId): Screen {

@@ -4,6 +4,7 @@
  */
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
+import { useRouteLoaderData } from 'react-router';
 import { sessionResponse, type SessionUser } from '../contracts/auth';
 import type { Role } from '../contracts/roles';
 import type { UpdatePreferencesRequest } from '../contracts/users';
@@ -12,6 +13,9 @@ import { queryClient } from './queryClient';
 import { unitFormatters } from './units';
 
 export const SESSION_KEY = ['session'] as const;
+
+/** Route id of the signed-in area; its loader (the sign-in guard) returns the user it let in. */
+export const SIGNED_IN_ROUTE_ID = 'signed-in';
 
 /** GET /api/auth/me; a 401 is an answer here: nobody is signed in (null). */
 export async function fetchSessionUser(): Promise<SessionUser | null> {
@@ -36,11 +40,23 @@ export function setSessionUser(user: SessionUser | null) {
   queryClient.setQueryData(SESSION_KEY, user);
 }
 
-/** The signed-in user. Only for screens behind the sign-in guard. */
+/**
+ * The signed-in user. Only for screens behind the sign-in guard.
+ *
+ * Normally the live session from the cache (so a preference change shows at once). When the
+ * signed-in area is being left — sign-out, or a 401 from an expired session — the cache says
+ * "nobody" (null) first, so that the sign-in page's loader does not send the person straight
+ * back, and the navigation to /sign-in then runs as a React transition: until it commits, the
+ * layout and the screen stay mounted and are rendered again (the router's "loading" state, the
+ * cache change). Those renders get the user the guard let in (the signed-in route's loader data),
+ * never a throw, which in a concurrent render surfaces as React error #520.
+ */
 export function useCurrentUser(): SessionUser {
   const { data } = useQuery(sessionQuery);
-  if (!data) throw new Error('useCurrentUser used outside the signed-in area');
-  return data;
+  const admitted = useRouteLoaderData(SIGNED_IN_ROUTE_ID) as SessionUser | undefined;
+  const user = data ?? admitted;
+  if (!user) throw new Error('useCurrentUser used outside the signed-in area');
+  return user;
 }
 
 export function useHasRole(...roles: Role[]): boolean {

@@ -1,6 +1,7 @@
 import type { SessionUser } from '../../contracts/auth';
 import { Panel } from '../../components/Panel';
 import { useUnits } from '../../lib/session';
+import { EngineeringHomePanel } from '../engineering';
 import { formatNumber, fromKelvinDifference, temperatureDifferenceSymbol } from '../../lib/units';
 import { AccountPanel, DutiesPanel, HomeFrame } from './parts';
 
@@ -73,6 +74,7 @@ function ReferencePanel() {
 export function EngineerHome({ user }: { user: SessionUser }) {
   return (
     <HomeFrame user={user}>
+      <EngineeringHomePanel />
       <ReferencePanel />
       <div className="grid gap-5 lg:grid-cols-2">
         <DutiesPanel user={user} />

@@ -13,6 +13,7 @@ import { applyServerErrors } from '../../lib/forms';
 import { formatBytes, formatDateTime, formatDay, plural } from '../../lib/format';
 import { useCurrentUser, useUnits } from '../../lib/session';
 import { customerQuery } from '../customers';
+import { OrderWorkOrders } from '../travelers';
 import { attachmentHref, orderQuery, uploadAttachment, useAcknowledgeOrder, useCancelOrder, useDeleteAttachment, type AcknowledgeResult } from './api';
 import { DropZone, newItem, precheck, UploadList, type UploadItem } from './Drawings';
 import type { SavedState } from './OrderFormPage';
@@ -478,6 +479,8 @@ export function OrderPage() {
           ))}
         </ol>
       </section>
+
+      {staff && <OrderWorkOrders orderId={o.id} />}
 
       <Attachments order={o} canWrite={canWrite} />
 

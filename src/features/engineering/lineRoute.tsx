@@ -1,0 +1,2 @@
+/** Route module for /engineering/lines/:id (lazy-loaded): one line's build sheet desk. */
+export { LinePage as Component } from './LinePage';

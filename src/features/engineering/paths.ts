@@ -1,0 +1,2 @@
+/** Where a line's desk lives. */
+export const linePath = (lineId: number) => `/engineering/lines/${lineId}`;

@@ -1,0 +1,2 @@
+/** Route module for /stock (lazy-loaded): the spools of magnet wire. */
+export { SpoolsPage as Component } from './SpoolsPage';
