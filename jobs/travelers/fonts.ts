@@ -2,6 +2,7 @@ import * as fontkit from 'fontkit';
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
+import { inflateSync } from 'node:zlib';
 
 /**
  * The fonts shipped with the app, for PDFs: Barlow for text, Noto Sans (latin and greek) as the
@@ -73,4 +74,62 @@ export function fontRuns(text: string, primary: FontName): { font: FontName; tex
     else runs.push({ font, text: ch });
   }
   return runs;
+}
+
+/**
+ * A WOFF 1.0 file unwrapped into the plain TrueType/OpenType font it carries (W3C WOFF File
+ * Format 1.0, sections 3–5: a header, a table directory, each table zlib-compressed when that
+ * made it smaller). Done once per process, so each PDF embeds fonts without inflating them again.
+ */
+export function sfntFromWoff(woff: Buffer): Buffer {
+  if (woff.readUInt32BE(0) !== 0x774f4646) throw new Error('not a WOFF file');
+  const flavor = woff.readUInt32BE(4);
+  const numTables = woff.readUInt16BE(12);
+  const tables: { tag: number; checksum: number; data: Buffer }[] = [];
+  for (let i = 0; i < numTables; i++) {
+    const e = 44 + i * 20;
+    const tag = woff.readUInt32BE(e);
+    const offset = woff.readUInt32BE(e + 4);
+    const compLength = woff.readUInt32BE(e + 8);
+    const origLength = woff.readUInt32BE(e + 12);
+    const checksum = woff.readUInt32BE(e + 16);
+    const raw = woff.subarray(offset, offset + compLength);
+    const data = compLength < origLength ? inflateSync(raw) : Buffer.from(raw);
+    if (data.length !== origLength) throw new Error('WOFF table length mismatch');
+    tables.push({ tag, checksum, data });
+  }
+  tables.sort((a, b) => a.tag - b.tag);
+  const pad4 = (n: number) => (n + 3) & ~3;
+  const headerSize = 12 + 16 * numTables;
+  const total = tables.reduce((n, t) => n + pad4(t.data.length), headerSize);
+  const out = Buffer.alloc(total);
+  const entrySelector = Math.floor(Math.log2(numTables));
+  const searchRange = 2 ** entrySelector * 16;
+  out.writeUInt32BE(flavor, 0);
+  out.writeUInt16BE(numTables, 4);
+  out.writeUInt16BE(searchRange, 6);
+  out.writeUInt16BE(entrySelector, 8);
+  out.writeUInt16BE(numTables * 16 - searchRange, 10);
+  let offset = headerSize;
+  tables.forEach((t, i) => {
+    const r = 12 + i * 16;
+    out.writeUInt32BE(t.tag, r);
+    out.writeUInt32BE(t.checksum, r + 4);
+    out.writeUInt32BE(offset, r + 8);
+    out.writeUInt32BE(t.data.length, r + 12);
+    t.data.copy(out, offset);
+    offset += pad4(t.data.length);
+  });
+  return out;
+}
+
+const sfntCache = new Map<FontName, Buffer>();
+/** The shipped fonts as plain font data, unwrapped once per process. */
+export function fontData(name: FontName): Buffer {
+  let b = sfntCache.get(name);
+  if (!b) {
+    b = sfntFromWoff(readFileSync(FONT_FILES[name]));
+    sfntCache.set(name, b);
+  }
+  return b;
 }

@@ -16,7 +16,7 @@ import {
   UNIT_SPACE,
 } from '../../src/lib/units';
 import type { BuildSheet, CoilSpec } from '../../server/coil/types';
-import { FONT_FILES, fontRuns, type FontName } from './fonts';
+import { FONT_FILES, fontData, fontRuns, type FontName } from './fonts';
 
 export type TravelerData = {
   shopName: string;
@@ -83,7 +83,7 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
     info: { Title: `Traveler ${d.workOrder.number}`, Author: d.shopName, Subject: `${d.order.number} line ${d.line.lineNo}`, Creator: 'Spoolwright' },
     bufferPages: true,
   });
-  for (const [name, file] of Object.entries(FONT_FILES)) doc.registerFont(name, file);
+  for (const name of Object.keys(FONT_FILES) as FontName[]) doc.registerFont(name, fontData(name));
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve, reject) => {
