@@ -1,15 +1,15 @@
 /**
- * Runs the API (which also serves the built client) and, once the queue exists, the worker,
- * as child processes; Ctrl-C stops them. `npm run stop` stops the local services.
+ * Runs the API (which also serves the built client) and the background worker as child
+ * processes (each one node process with tsx's loader); Ctrl-C stops both. `npm run stop` stops
+ * the local services.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 
 const root = path.resolve(import.meta.dirname, '..');
-const tsx = path.join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs');
 const entries = ['server/index.ts', 'jobs/worker.ts'].filter((e) => existsSync(path.join(root, e)));
-const children: ChildProcess[] = entries.map((e) => spawn(process.execPath, [tsx, e], { cwd: root, stdio: 'inherit', env: process.env }));
+const children: ChildProcess[] = entries.map((e) => spawn(process.execPath, ['--import', 'tsx', e], { cwd: root, stdio: 'inherit', env: process.env }));
 
 let stopping = false;
 function stop(code = 0) {
