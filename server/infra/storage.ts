@@ -4,6 +4,9 @@ import type { Config } from '../config';
 
 /** Files (drawings, generated PDFs) in an S3-compatible object store, only through the S3 SDK. */
 export function createStorage(s3: Config['s3']) {
+  // The project runs on Node 20 and pins an SDK version that supports it; the SDK's notice about
+  // its future releases would otherwise print at every start of every process.
+  process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
   const client = new S3Client({
     region: s3.region,
     endpoint: s3.endpoint,
