@@ -124,7 +124,7 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
     doc.moveDown(0.6);
     const y = doc.y;
     doc.rect(left, y, 3, 12).fill(ACCENT);
-    write(title.toUpperCase(), { font: 'Barlow-Bold', size: 9.5, x: left + 8, y: y + 1, color: INK });
+    write(title, { font: 'Barlow-Bold', size: 10, x: left + 8, y: y + 0.5, color: INK });
     doc.y = y + 17;
   };
 
@@ -180,7 +180,7 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
   const len = (m: number) => formatLength(m, u.lengthUnit);
   const rows: [string, string, string][] = [
     ['Magnet wire', wireLabel(r), `bare ${si(r.wire.bareDiameter * 1000, 'mm', 3)}`],
-    ['Overall diameter (insulated)', len(r.wire.overallDiameter), si(r.wire.overallDiameter * 1000, 'mm', 3)],
+    ['Overall diameter (insulated)', formatLength(r.wire.overallDiameter, u.lengthUnit, u.lengthUnit === 'mm' ? 3 : 4), si(r.wire.overallDiameter * 1000, 'mm', 3)],
     ['Winding pattern', spec.pattern, spec.pattern === 'random' && spec.fillFactor ? `fill ${formatNumber(spec.fillFactor, 2)}` : ''],
     ['Turns per layer × layers', `${r.turnsPerLayer} × ${r.layers}`, ''],
     ['Total turns', formatNumber(r.turns, 0), ''],
@@ -262,7 +262,7 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
   grid(['Stage', 'Operator', 'Date', 'Station', 'Notes'], [100, 110, 70, 80, width - 360], d.stages.length, (i) => d.stages[i].label);
 
   // ── Test record by hand ──────────────────────────────────────────────────────────────────
-  sectionTitle(`Tests by hand — enter them in Spoolwright too (R at 20 °C within ${eng(r.resistance20 * (1 - rTol), 'Ω')} … ${eng(r.resistance20 * (1 + rTol), 'Ω')})`);
+  sectionTitle(`Tests by hand — R at 20 °C within ${eng(r.resistance20 * (1 - rTol), 'Ω')} … ${eng(r.resistance20 * (1 + rTol), 'Ω')}; enter every reading in Spoolwright too`);
   const testRows = Math.min(d.workOrder.quantity, 12);
   grid(['Serial', 'R measured (Ω)', 'at °C', 'Hi-pot V / s / leakage', 'IR (MΩ)', 'Pass / fail', 'Initials'], [70, 80, 50, 120, 60, 60, width - 440], testRows, () => '');
 
@@ -270,7 +270,7 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
   ensureSpace(110);
   doc.moveDown(0.5);
   const boxY = doc.y;
-  write('CAUTIONS', { font: 'Barlow-Bold', size: 9, color: '#8a3b12', x: left + 10, y: boxY + 8 });
+  write('Cautions', { font: 'Barlow-Bold', size: 9, color: '#8a3b12', x: left + 10, y: boxY + 8 });
   doc.y = boxY + 22;
   for (const c of CAUTIONS) {
     mark(left + 10, doc.y);

@@ -3,6 +3,7 @@ import { ROLES, type Role } from '../../src/contracts/roles';
 import type { Db } from '../db/client';
 import { appMeta, customers, users } from '../db/schema';
 import { hashPassword } from '../users/service';
+import { getShopSettings, setShopSetting, SHOP_DEFAULTS } from '../settings/service';
 import { demoOrdersStep } from './orders';
 import { demoBuildSheetsStep } from './build-sheets';
 
@@ -25,6 +26,16 @@ const DEMO_NAMES: Record<Role, string> = {
 export const DEMO_CUSTOMER_COMPANY = 'Pellridge Valve Systems';
 
 type Step = { id: string; run: (tx: Db) => Promise<void> };
+
+/** The invented shop the demo plays. */
+export const DEMO_SHOP_NAME = 'Larkspur Coil Works';
+const demoShopStep: Step = {
+  id: 'demo-shop',
+  async run(db) {
+    if ((await getShopSettings(db)).name !== SHOP_DEFAULTS.name) return;
+    await setShopSetting(db, 'name', DEMO_SHOP_NAME);
+  },
+};
 
 /**
  * Seed steps, each run once per database and recorded in app_meta. A step never touches a
@@ -52,6 +63,8 @@ export const SEED_STEPS: Step[] = [
     },
   },
   // Customers with contacts, orders in every status and a few drawings (server/seed/orders.ts).
+  // The demo shop's own name on travelers and e-mail (kept if the shop already set one).
+  demoShopStep,
   demoOrdersStep,
   // Spools, build sheets drafted, approved and released to work orders (server/seed/build-sheets.ts).
   demoBuildSheetsStep,
