@@ -80,4 +80,31 @@ describe('travelers from the order page', () => {
       await context.close();
     }
   });
+
+  it('the admin sets the shop’s paper and batch size; a bad value is refused beside its field', async () => {
+    const { context, page, pageErrors } = await openPage(browser);
+    try {
+      await signIn(page, 'admin');
+      await page.getByRole('link', { name: 'Settings' }).click();
+      await page.getByRole('heading', { name: 'Shop settings' }).waitFor();
+      await page.getByLabel('Units per work order').fill('0');
+      await page.getByRole('button', { name: 'Save settings' }).click();
+      await page.getByText('At least 1').waitFor();
+      await page.getByLabel('Units per work order').fill('20');
+      await page.getByLabel('Paper for travelers').selectOption('LETTER');
+      await page.getByRole('button', { name: 'Save settings' }).click();
+      await page.getByText('Settings saved').waitFor();
+      const saved = await page.evaluate(async () => (await (await fetch('/api/settings')).json()).settings);
+      expect(saved).toMatchObject({ unitsPerWorkOrder: 20, paper: 'LETTER' });
+      await screenshot(page, 'admin-settings');
+      // Put the demo shop back as it was.
+      await page.getByLabel('Units per work order').fill('25');
+      await page.getByLabel('Paper for travelers').selectOption('A4');
+      await page.getByRole('button', { name: 'Save settings' }).click();
+      await page.getByText('Settings saved').waitFor();
+      expect(pageErrors).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  });
 });
