@@ -18,9 +18,11 @@ import { calculationsRouter } from './calculations/router';
 import { jobsRouter } from './jobs/router';
 import { notificationsRouter } from './notifications/router';
 import { travelersRouter } from './travelers/router';
+import { settingsRouter } from './settings/router';
 import { buildSheetsRouter } from './build-sheets/router';
 import { workOrdersRouter } from './work-orders/router';
 import { stockRouter } from './stock/router';
+import { floorRouter } from './floor/router';
 
 const clientDir = path.resolve(import.meta.dirname, '..', 'dist', 'client');
 
@@ -39,6 +41,8 @@ export function apiRouters(deps: Deps): Router[] {
     workOrdersRouter(deps.db),
     stockRouter(deps.db),
     travelersRouter(deps),
+    settingsRouter(deps.db),
+    floorRouter(deps),
   ];
 }
 

@@ -456,6 +456,7 @@ export async function releaseBuildSheet(
           userId: actor.id,
           fromStage: null,
           toStage: RELEASED_STAGE,
+          kind: 'release' as const,
           note: `Released from build sheet v${sheet.version}${stock.short && !history ? ` despite short wire stock: ${note}` : ''}`,
         },
       ]);

@@ -8,6 +8,7 @@ import {
   index,
   integer,
   json,
+  type AnyPgColumn,
   jsonb,
   pgEnum,
   pgSequence,
@@ -27,7 +28,8 @@ import type { CoilSpec, CoilTarget } from '../../src/contracts/coil';
 import { BUILD_SHEET_STATUSES } from '../../src/contracts/build-sheet-status';
 import { STAGES } from '../../src/contracts/stages';
 import { CONDUCTORS, WIRE_STANDARDS, type Conductor } from '../../src/contracts/stock';
-import { PRIORITY_DEFAULT } from '../../src/contracts/work-orders';
+import { PRIORITY_DEFAULT, WORK_ORDER_EVENT_KINDS } from '../../src/contracts/work-orders';
+import { STATION_KINDS } from '../../src/contracts/floor';
 import type { BuildSheet } from '../coil/types';
 
 export const roleEnum = pgEnum('role', ROLES);
@@ -317,6 +319,8 @@ export const workOrders = pgTable(
     /** Higher goes first (PRIORITIES in src/contracts/work-orders.ts). */
     priority: integer('priority').notNull().default(PRIORITY_DEFAULT),
     assigneeId: integer('assignee_id').references(() => users.id, { onDelete: 'set null' }),
+    /** The station it is assigned to (floor). */
+    stationId: integer('station_id').references((): AnyPgColumn => stations.id, { onDelete: 'restrict' }),
     /** Optimistic locking: every change bumps it; a change naming an older one is refused. */
     version: integer('version').notNull().default(1),
     ...timestamps,
@@ -326,10 +330,14 @@ export const workOrders = pgTable(
     index('work_orders_stage_due_idx').on(t.stage, t.dueDate),
     index('work_orders_order_idx').on(t.orderId),
     index('work_orders_line_idx').on(t.lineId),
+    index('work_orders_assignee_idx').on(t.assigneeId),
+    index('work_orders_station_idx').on(t.stationId),
   ],
 );
 
-/** Every stage a work order entered (the release: from null to ready). Never rewritten. */
+export const workOrderEventKindEnum = pgEnum('work_order_event_kind', WORK_ORDER_EVENT_KINDS);
+
+/** Every stage a work order entered (the release: from null to ready), assignment and priority change. Never rewritten. */
 export const workOrderEvents = pgTable(
   'work_order_events',
   {
@@ -342,8 +350,15 @@ export const workOrderEvents = pgTable(
     fromStage: workOrderStageEnum('from_stage'),
     toStage: workOrderStageEnum('to_stage').notNull(),
     note: text('note').notNull().default(''),
-    /** The station it happened at; stations arrive with the floor issue (no foreign key yet). */
-    stationId: integer('station_id'),
+    /** The station it happened at. */
+    stationId: integer('station_id').references((): AnyPgColumn => stations.id, { onDelete: 'restrict' }),
+    /** release, move (stage change), assign or priority; assign and priority keep the stage (from = to). */
+    kind: workOrderEventKindEnum('kind').notNull().default('move'),
+    /** Assignment events: the person assigned (null = nobody). */
+    assigneeId: integer('assignee_id').references(() => users.id, { onDelete: 'set null' }),
+    /** Leaving winding: the turns counter reading and the spool lot actually used. */
+    turnsCounter: integer('turns_counter'),
+    spoolLot: varchar('spool_lot', { length: 60 }),
   },
   (t) => [index('work_order_events_wo_idx').on(t.workOrderId, t.at)],
 );
@@ -416,4 +431,29 @@ export const travelers = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('travelers_wo_sheet_unique').on(t.workOrderId, t.buildSheetId)],
+);
+
+// ── The floor ──────────────────────────────────────────────────────────────────────────────
+
+export const stationKindEnum = pgEnum('station_kind', STATION_KINDS);
+
+/**
+ * Winding machines, benches, ovens and test benches (admin-managed; retired with active = false,
+ * never deleted: events point at them). Wire-size range as bare diameter, m; spindle in rev/min;
+ * set-up per work order, s.
+ */
+export const stations = pgTable(
+  'stations',
+  {
+    id: serial('id').primaryKey(),
+    name: varchar('name', { length: 80 }).notNull(),
+    kind: stationKindEnum('kind').notNull(),
+    wireDiameterMin: doublePrecision('wire_diameter_min'),
+    wireDiameterMax: doublePrecision('wire_diameter_max'),
+    spindleRpm: doublePrecision('spindle_rpm'),
+    setupSeconds: integer('setup_seconds').notNull().default(0),
+    active: boolean('active').notNull().default(true),
+    ...timestamps,
+  },
+  (t) => [uniqueIndex('stations_name_unique').on(sql`lower(${t.name})`)],
 );

@@ -6,6 +6,8 @@ import { hashPassword } from '../users/service';
 import { getShopSettings, setShopSetting, SHOP_DEFAULTS } from '../settings/service';
 import { demoOrdersStep } from './orders';
 import { demoBuildSheetsStep } from './build-sheets';
+import { demoFloorStep } from './floor';
+import { demoShippedHistoryStep } from './history';
 
 /** The demo sign-ins: `<role>@spoolwright.test`, one per role, all with this password. */
 export const DEMO_PASSWORD = 'spoolwright-demo';
@@ -68,6 +70,10 @@ export const SEED_STEPS: Step[] = [
   demoOrdersStep,
   // Spools, build sheets drafted, approved and released to work orders (server/seed/build-sheets.ts).
   demoBuildSheetsStep,
+  // Stations, five floor staff, work orders assigned and moved along the stages (server/seed/floor.ts).
+  demoFloorStep,
+  // Work orders of orders that shipped before shipments were recorded here (server/seed/history.ts).
+  demoShippedHistoryStep,
 ];
 
 /** Runs the steps not yet recorded, each in its own transaction with its record. */

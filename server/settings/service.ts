@@ -1,4 +1,5 @@
 import { inArray } from 'drizzle-orm';
+import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
 import { appMeta } from '../db/schema';
 
@@ -16,6 +17,28 @@ export const SHOP_DEFAULTS = {
    * wire mass (common practice, no published source).
    */
   scrapAllowancePercent: '5',
+  /**
+   * The floor's estimates (board, at-risk flag, load view). Working hours per working day
+   * (Mon–Fri) for one person or station.
+   */
+  shiftHoursPerDay: '7.5',
+  /** Winding time when a work order has no station with a spindle: rev/min and set-up, s. */
+  defaultSpindleRpm: '1200',
+  defaultSetupSeconds: '900',
+  /**
+   * Standard times of the stages other than winding (winding = turns ÷ spindle speed + set-up),
+   * JSON { stage: { minutesPerUnit, minutesPerBatch } }. Invented but plausible defaults for a
+   * small coil shop (common practice, no published source); the shop sets its own.
+   */
+  stageStandardTimes: JSON.stringify({
+    ready: { minutesPerUnit: 0, minutesPerBatch: 0 },
+    terminating: { minutesPerUnit: 4, minutesPerBatch: 10 },
+    impregnating: { minutesPerUnit: 1.5, minutesPerBatch: 30 },
+    curing: { minutesPerUnit: 0, minutesPerBatch: 120 },
+    testing: { minutesPerUnit: 3, minutesPerBatch: 10 },
+    inspection: { minutesPerUnit: 1, minutesPerBatch: 10 },
+    packing: { minutesPerUnit: 1, minutesPerBatch: 15 },
+  }),
 };
 export type ShopSettings = typeof SHOP_DEFAULTS;
 
@@ -51,5 +74,47 @@ export async function getReleaseSettings(db: Db | Tx) {
   return {
     unitsPerWorkOrder: Math.floor(numberSetting(s, 'unitsPerWorkOrder', (n) => n >= 1)),
     scrapAllowancePercent: numberSetting(s, 'scrapAllowancePercent', (n) => n >= 0 && n <= 100),
+  };
+}
+
+/** A stage's standard time: minutes per unit × quantity + minutes per batch. */
+export type StageStandardTime = { minutesPerUnit: number; minutesPerBatch: number };
+/** The stages with a standard time (every floor stage but winding, which is computed). */
+export type StandardTimedStage = Exclude<Stage, 'engineering' | 'winding' | 'shipped' | 'on_hold' | 'rework'>;
+
+export type FloorSettings = {
+  shiftHoursPerDay: number;
+  defaultSpindleRpm: number;
+  defaultSetupSeconds: number;
+  stageStandardTimes: Record<StandardTimedStage, StageStandardTime>;
+};
+
+const inRange = (v: string, fallback: string, max: number, zeroOk = false) => {
+  const n = Number(v);
+  return Number.isFinite(n) && (zeroOk ? n >= 0 : n > 0) && n <= max ? n : Number(fallback);
+};
+
+/** The floor's estimate settings; anything unusable (per value) falls back to the default. */
+export async function getFloorSettings(db: Db | Tx): Promise<FloorSettings> {
+  const s = await getShopSettings(db);
+  const defaults = JSON.parse(SHOP_DEFAULTS.stageStandardTimes) as Record<StandardTimedStage, StageStandardTime>;
+  let stored: Record<string, Partial<StageStandardTime>> = {};
+  try {
+    const v: unknown = JSON.parse(s.stageStandardTimes);
+    if (v && typeof v === 'object') stored = v as typeof stored;
+  } catch {
+    // unusable: the defaults stand
+  }
+  const ok = (n: unknown): n is number => typeof n === 'number' && Number.isFinite(n) && n >= 0 && n <= 10_000;
+  const times = {} as Record<StandardTimedStage, StageStandardTime>;
+  for (const [stage, d] of Object.entries(defaults) as [StandardTimedStage, StageStandardTime][]) {
+    const v = stored[stage] ?? {};
+    times[stage] = { minutesPerUnit: ok(v.minutesPerUnit) ? v.minutesPerUnit : d.minutesPerUnit, minutesPerBatch: ok(v.minutesPerBatch) ? v.minutesPerBatch : d.minutesPerBatch };
+  }
+  return {
+    shiftHoursPerDay: inRange(s.shiftHoursPerDay, SHOP_DEFAULTS.shiftHoursPerDay, 24),
+    defaultSpindleRpm: inRange(s.defaultSpindleRpm, SHOP_DEFAULTS.defaultSpindleRpm, 30_000),
+    defaultSetupSeconds: inRange(s.defaultSetupSeconds, SHOP_DEFAULTS.defaultSetupSeconds, 8 * 3600, true),
+    stageStandardTimes: times,
   };
 }

@@ -1,8 +1,8 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, gte, inArray, isNull, lt, lte, ne, notInArray, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
-import { buildSheets, customers, orderLines, orders, users, workOrderEvents, workOrders } from '../db/schema';
+import { buildSheets, customers, orderLines, orders, stations, users, workOrderEvents, workOrders } from '../db/schema';
 
 export type WorkOrderRow = typeof workOrders.$inferSelect;
 
@@ -41,7 +41,30 @@ export async function setStage(tx: Tx, ids: number[], stage: Stage) {
 
 const assignee = alias(users, 'assignee');
 
-export type WorkOrderFilter = { id?: number; stages?: Stage[]; orderId?: number; lineId?: number; customerId?: number };
+export type WorkOrderFilter = {
+  id?: number;
+  ids?: number[];
+  stages?: Stage[];
+  excludeStages?: Stage[];
+  orderId?: number;
+  lineId?: number;
+  /** The customer-role scope. */
+  customerId?: number;
+  /** The board's customer filter (applies on top of the scope). */
+  customer?: number;
+  assignee?: number | 'none';
+  station?: number | 'none';
+  dueFrom?: string;
+  dueTo?: string;
+  /** Due before this date (YYYY-MM-DD) and not shipped = late; false = the others. */
+  late?: { today: string; value: boolean };
+};
+
+/** When the work order entered its current stage: its last release or move event. */
+const enteredStageAt = sql<string | Date>`(select max(e.at) from work_order_events e where e.work_order_id = ${workOrders.id} and e.kind in ('release', 'move'))`;
+/** While on hold: the stage and the reason of the hold (its last move event). */
+const lastMove = (col: 'from_stage' | 'note') =>
+  sql<string | null>`(select e.${sql.raw(col)} from work_order_events e where e.work_order_id = ${workOrders.id} and e.kind in ('release', 'move') order by e.at desc, e.id desc limit 1)`;
 
 /** Work orders with their order, customer, line, sheet and assignee; oldest due first. */
 export function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
@@ -52,7 +75,11 @@ export function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
       customerName: customers.name,
       line: { id: orderLines.id, lineNo: orderLines.lineNo, title: orderLines.title, tolerancePercent: orderLines.tolerancePercent },
       assigneeName: assignee.name,
+      station: { id: stations.id, name: stations.name, spindleRpm: stations.spindleRpm, setupSeconds: stations.setupSeconds },
       sheet: buildSheets,
+      enteredStageAt,
+      lastFrom: lastMove('from_stage'),
+      lastNote: lastMove('note'),
     })
     .from(workOrders)
     .innerJoin(orders, eq(orders.id, workOrders.orderId))
@@ -60,10 +87,20 @@ export function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
     .innerJoin(orderLines, eq(orderLines.id, workOrders.lineId))
     .innerJoin(buildSheets, eq(buildSheets.id, workOrders.buildSheetId))
     .leftJoin(assignee, eq(assignee.id, workOrders.assigneeId))
+    .leftJoin(stations, eq(stations.id, workOrders.stationId))
     .where(
       and(
         f.id !== undefined ? eq(workOrders.id, f.id) : undefined,
+        f.ids !== undefined ? inArray(workOrders.id, f.ids.length ? f.ids : [-1]) : undefined,
         f.stages?.length ? inArray(workOrders.stage, f.stages) : undefined,
+        f.excludeStages?.length ? notInArray(workOrders.stage, f.excludeStages) : undefined,
+        f.customer !== undefined ? eq(orders.customerId, f.customer) : undefined,
+        f.assignee === 'none' ? isNull(workOrders.assigneeId) : f.assignee !== undefined ? eq(workOrders.assigneeId, f.assignee) : undefined,
+        f.station === 'none' ? isNull(workOrders.stationId) : f.station !== undefined ? eq(workOrders.stationId, f.station) : undefined,
+        f.dueFrom !== undefined ? gte(workOrders.dueDate, f.dueFrom) : undefined,
+        f.dueTo !== undefined ? lte(workOrders.dueDate, f.dueTo) : undefined,
+        f.late?.value === true ? and(lt(workOrders.dueDate, f.late.today), ne(workOrders.stage, 'shipped')) : undefined,
+        f.late?.value === false ? sql`not (${workOrders.dueDate} < ${f.late.today} and ${workOrders.stage} <> 'shipped')` : undefined,
         f.orderId !== undefined ? eq(workOrders.orderId, f.orderId) : undefined,
         f.lineId !== undefined ? eq(workOrders.lineId, f.lineId) : undefined,
         f.customerId !== undefined ? eq(orders.customerId, f.customerId) : undefined,
@@ -72,11 +109,41 @@ export function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
     .orderBy(asc(workOrders.dueDate), sql`${workOrders.priority} desc`, asc(workOrders.number));
 }
 
+const eventAssignee = alias(users, 'event_assignee');
+
 export function listEvents(db: Db | Tx, workOrderId: number) {
   return db
-    .select({ event: workOrderEvents, userName: users.name })
+    .select({ event: workOrderEvents, userName: users.name, stationName: stations.name, assigneeName: eventAssignee.name })
     .from(workOrderEvents)
     .leftJoin(users, eq(users.id, workOrderEvents.userId))
+    .leftJoin(stations, eq(stations.id, workOrderEvents.stationId))
+    .leftJoin(eventAssignee, eq(eventAssignee.id, workOrderEvents.assigneeId))
     .where(eq(workOrderEvents.workOrderId, workOrderId))
     .orderBy(asc(workOrderEvents.at), asc(workOrderEvents.id));
+}
+
+/** Locks work orders for a change (in id order, so two batches never deadlock). */
+export function lockWorkOrders(tx: Tx, ids: number[]) {
+  return tx.select().from(workOrders).where(inArray(workOrders.id, ids)).orderBy(asc(workOrders.id)).for('update');
+}
+
+/** Changes work orders and bumps their version (optimistic locking). */
+export async function updateWorkOrders(tx: Tx, ids: number[], set: Partial<Pick<WorkOrderRow, 'stage' | 'assigneeId' | 'stationId' | 'priority'>>) {
+  if (!ids.length) return [];
+  return tx
+    .update(workOrders)
+    .set({ ...set, version: sql`${workOrders.version} + 1`, updatedAt: new Date() })
+    .where(inArray(workOrders.id, ids))
+    .returning();
+}
+
+/** While on hold: the stage the hold was taken in (the last move event's from-stage). */
+export async function heldFrom(tx: Db | Tx, workOrderId: number): Promise<Stage | null> {
+  const [row] = await tx
+    .select({ fromStage: workOrderEvents.fromStage })
+    .from(workOrderEvents)
+    .where(and(eq(workOrderEvents.workOrderId, workOrderId), inArray(workOrderEvents.kind, ['release', 'move'])))
+    .orderBy(sql`${workOrderEvents.at} desc, ${workOrderEvents.id} desc`)
+    .limit(1);
+  return row?.fromStage ?? null;
 }

@@ -5,7 +5,7 @@
  * its row here and its route in router.tsx. (The server decides for real; this only hides what
  * it would refuse.)
  */
-import { ROLES, type Role } from '../contracts/roles';
+import { ROLES, STAFF_ROLES, type Role } from '../contracts/roles';
 
 export type ScreenId =
   | 'home'
@@ -19,9 +19,16 @@ export type ScreenId =
   | 'customerEdit'
   | 'users'
   | 'outbox'
+  | 'settings'
   | 'engineering'
   | 'engineeringLine'
-  | 'spools';
+  | 'spools'
+  | 'floorBoard'
+  | 'floorLoad'
+  | 'myWork'
+  | 'scan'
+  | 'workOrder'
+  | 'stations';
 
 /** Who reads orders (a customer only its own company's: the server filters). */
 const ORDER_READERS: readonly Role[] = ['office', 'engineer', 'foreman', 'shipping', 'admin', 'customer'];
@@ -54,8 +61,15 @@ export const SCREENS: readonly Screen[] = [
   { id: 'engineering', path: '/engineering', label: 'Engineering', roles: SHEET_READERS, inNav: true },
   { id: 'engineeringLine', path: '/engineering/lines/:id', label: 'Order line', roles: SHEET_READERS, inNav: false },
   { id: 'spools', path: '/stock', label: 'Wire stock', roles: SHEET_READERS, inNav: true },
+  { id: 'floorBoard', path: '/board', label: 'Board', roles: STAFF_ROLES, inNav: true },
+  { id: 'floorLoad', path: '/load', label: 'Load', roles: ['foreman', 'admin'], inNav: true },
+  { id: 'myWork', path: '/my-work', label: 'My work', roles: ['floor', 'foreman'], inNav: true },
+  { id: 'scan', path: '/scan', label: 'Scan', roles: ['floor', 'foreman'], inNav: true },
+  { id: 'workOrder', path: '/work-orders/:id', label: 'Work order', roles: STAFF_ROLES, inNav: false },
+  { id: 'stations', path: '/stations', label: 'Stations', roles: ['admin'], inNav: true },
   { id: 'users', path: '/users', label: 'Users', roles: ['admin'], inNav: true },
   { id: 'outbox', path: '/outbox', label: 'Outbox', roles: ['admin'], inNav: true },
+  { id: 'settings', path: '/settings', label: 'Settings', roles: ['admin'], inNav: true },
 ];
 
 export function screen(id: ScreenId): Screen {

@@ -25,6 +25,8 @@ export const apiErrorBody = z.object({
     message: z.string(),
     fields: z.record(z.string(), z.string()).optional(),
     current: z.unknown().optional(),
+    /** Which rule refused a move (see MOVE_RULES in floor.ts). */
+    rule: z.string().optional(),
   }),
 });
 export type ApiErrorBody = z.infer<typeof apiErrorBody>;

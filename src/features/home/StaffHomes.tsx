@@ -1,5 +1,6 @@
 /** The homes of office, foreman, floor and shipping: their work, their safety notes, their units. */
 import type { SessionUser } from '../../contracts/auth';
+import { FloorHomePanel } from '../floor';
 import { OrdersHomePanel } from '../orders';
 import { AccountPanel, DutiesPanel, HomeFrame, SAFETY, SafetyPanel } from './parts';
 
@@ -18,6 +19,7 @@ export function OfficeHome({ user }: { user: SessionUser }) {
 export function ForemanHome({ user }: { user: SessionUser }) {
   return (
     <HomeFrame user={user}>
+      <FloorHomePanel />
       <div className="grid gap-5 lg:grid-cols-2">
         <DutiesPanel user={user} />
         <SafetyPanel items={[SAFETY.hipot, SAFETY.hot, SAFETY.lifting]} />
@@ -30,6 +32,7 @@ export function ForemanHome({ user }: { user: SessionUser }) {
 export function FloorHome({ user }: { user: SessionUser }) {
   return (
     <HomeFrame user={user}>
+      <FloorHomePanel />
       <SafetyPanel items={[SAFETY.hipot, SAFETY.hot]} />
       <div className="grid gap-5 lg:grid-cols-2">
         <DutiesPanel user={user} title="Your work at the bench" />

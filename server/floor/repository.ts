@@ -1,0 +1,60 @@
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import type { Db, Tx } from '../db/client';
+import { spools, stations, users } from '../db/schema';
+
+export type StationRow = typeof stations.$inferSelect;
+
+export function listStations(db: Db | Tx, f: { active?: boolean } = {}) {
+  return db
+    .select()
+    .from(stations)
+    .where(f.active !== undefined ? eq(stations.active, f.active) : undefined)
+    .orderBy(asc(stations.name));
+}
+
+export async function findStation(db: Db | Tx, id: number) {
+  const [row] = await db.select().from(stations).where(eq(stations.id, id));
+  return row;
+}
+
+export async function lockStation(tx: Tx, id: number) {
+  const [row] = await tx.select().from(stations).where(eq(stations.id, id)).for('update');
+  return row;
+}
+
+export async function insertStation(db: Db | Tx, values: typeof stations.$inferInsert) {
+  const [row] = await db.insert(stations).values(values).returning();
+  return row;
+}
+
+export async function updateStation(db: Db | Tx, id: number, set: Partial<typeof stations.$inferInsert>) {
+  const [row] = await db
+    .update(stations)
+    .set({ ...set, updatedAt: new Date() })
+    .where(eq(stations.id, id))
+    .returning();
+  return row;
+}
+
+export async function findUser(db: Db | Tx, id: number) {
+  const [row] = await db.select({ id: users.id, name: users.name, role: users.role, active: users.active }).from(users).where(eq(users.id, id));
+  return row;
+}
+
+export function usersByIds(db: Db | Tx, ids: number[]) {
+  return db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids.length ? ids : [-1]));
+}
+
+export function activeFloorUsers(db: Db | Tx) {
+  return db
+    .select({ id: users.id, name: users.name })
+    .from(users)
+    .where(and(eq(users.role, 'floor'), eq(users.active, true)))
+    .orderBy(asc(users.name));
+}
+
+/** Is there a spool with this lot (any case) in stock? */
+export async function spoolLotExists(db: Db | Tx, lot: string) {
+  const [row] = await db.select({ id: spools.id }).from(spools).where(sql`lower(${spools.lot}) = ${lot.toLowerCase()}`).limit(1);
+  return !!row;
+}

@@ -1,0 +1,2 @@
+/** Route module for /my-work (lazy-loaded): my work. */
+export { MyWorkPage as Component } from './MyWorkPage';

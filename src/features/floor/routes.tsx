@@ -1,0 +1,2 @@
+/** Route module for /board (lazy-loaded): the board. */
+export { BoardPage as Component } from './BoardPage';
