@@ -56,6 +56,8 @@ export type WorkOrderFilter = {
   station?: number | 'none';
   dueFrom?: string;
   dueTo?: string;
+  /** Exact work-order number (upper case). */
+  number?: string;
   /** Due before this date (YYYY-MM-DD) and not shipped = late; false = the others. */
   late?: { today: string; value: boolean };
 };
@@ -99,6 +101,7 @@ export function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
         f.station === 'none' ? isNull(workOrders.stationId) : f.station !== undefined ? eq(workOrders.stationId, f.station) : undefined,
         f.dueFrom !== undefined ? gte(workOrders.dueDate, f.dueFrom) : undefined,
         f.dueTo !== undefined ? lte(workOrders.dueDate, f.dueTo) : undefined,
+        f.number !== undefined ? eq(workOrders.number, f.number) : undefined,
         f.late?.value === true ? and(lt(workOrders.dueDate, f.late.today), ne(workOrders.stage, 'shipped')) : undefined,
         f.late?.value === false ? sql`not (${workOrders.dueDate} < ${f.late.today} and ${workOrders.stage} <> 'shipped')` : undefined,
         f.orderId !== undefined ? eq(workOrders.orderId, f.orderId) : undefined,

@@ -84,6 +84,7 @@ export async function listWorkOrders(db: Db | Tx, viewer: SessionUser, q: Partia
     station: q.station,
     dueFrom: q.dueFrom,
     dueTo: q.dueTo,
+    number: q.number,
     late: q.late === undefined ? undefined : { today, value: q.late },
   });
   return list.map((x) => x.summary).filter((s) => q.atRisk === undefined || s.atRisk === q.atRisk);

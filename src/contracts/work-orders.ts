@@ -44,7 +44,8 @@ const idOrNone = (what: string) => z.union([z.literal('none'), id(what)], { erro
  * GET /api/work-orders query: all optional; `stage` takes one stage or several, comma-separated.
  * The board's filters: `assignee` and `station` take an id or `none`; `customer` a customer id
  * (a customer-role reader sees only its own company whatever it asks); `late` / `atRisk` true or
- * false; `dueFrom` / `dueTo` bound the due date (YYYY-MM-DD, inclusive).
+ * false; `dueFrom` / `dueTo` bound the due date (YYYY-MM-DD, inclusive); `number` finds one
+ * work order by its number.
  */
 export const listWorkOrdersQuery = z.object({
   stage: z
@@ -61,6 +62,8 @@ export const listWorkOrdersQuery = z.object({
   atRisk: bool('At risk').optional(),
   dueFrom: isoDate('Due from').optional(),
   dueTo: isoDate('Due to').optional(),
+  /** An exact work-order number, any letter case (what a scanner types). */
+  number: z.string().trim().toUpperCase().max(24, 'Number: at most 24 characters').optional(),
 });
 export type ListWorkOrdersQuery = z.infer<typeof listWorkOrdersQuery>;
 

@@ -155,14 +155,18 @@ export function parseScan(raw: string): ScanTarget | null {
 }
 
 /**
- * Finds a work order by what was scanned. The list endpoint has no number filter, so a number is
- * looked up in the whole list (GET /api/work-orders), then read in full by id.
+ * Finds a work order by what was scanned: a full number through the list's `number` filter; a
+ * shortened one ("26-00042", "42") by matching the list. Then read in full by id.
  * Answers null when nothing has that number.
  */
 export async function lookupWorkOrder(target: ScanTarget, signal?: AbortSignal): Promise<WorkOrderDetail | null> {
   let id: number | undefined;
   if ('id' in target) id = target.id;
-  else {
+  else if (/^WO-\d{2}-\d+$/.test(target.number)) {
+    const found = (await api.get(`/work-orders?number=${encodeURIComponent(target.number)}`, { schema: workOrderListResponse, signal })).workOrders;
+    if (found.length !== 1) return null;
+    id = found[0]!.id;
+  } else {
     const all = (await api.get('/work-orders', { schema: workOrderListResponse, signal })).workOrders;
     const exact = all.find((w) => w.number.toUpperCase() === target.number);
     // A number typed without its prefix ("26-00042") or the sequence alone ("42") also finds it, when unambiguous.
