@@ -23,7 +23,7 @@ import * as customerRepo from '../customers/repository';
 import type { Db, Tx } from '../db/client';
 import { HttpError, badRequest, conflict, notFound, ruleBroken } from '../http/errors';
 import * as orderRepo from '../orders/repository';
-import { orderRecipients, transitionOrder, type NotificationSummary } from '../orders/service';
+import { lineFields, orderRecipients, transitionOrder, type NotificationSummary } from '../orders/service';
 import { getReleaseSettings } from '../settings/service';
 import * as stockRepo from '../stock/repository';
 import { allocate, freeSpools, stockCheckOf, wireNeeded } from '../stock/service';
@@ -177,15 +177,7 @@ export async function getOrderLine(db: Db | Tx, lineId: number): Promise<OrderLi
   const { line: l, order: o } = row;
   const sheets = await repo.listForLine(db, lineId);
   return {
-    id: l.id,
-    lineNo: l.lineNo,
-    quantity: l.quantity,
-    title: l.title,
-    customerPartNumber: l.customerPartNumber,
-    requirement: l.requirement,
-    tolerancePercent: l.tolerancePercent,
-    terminationNotes: l.terminationNotes,
-    leadNotes: l.leadNotes,
+    ...lineFields(l),
     order: { id: o.id, number: o.number, status: o.status, purchaseOrder: o.purchaseOrder, orderDate: o.orderDate, dueDate: o.dueDate },
     customer: { id: o.customerId, name: row.customerName },
     sheets: await records(db, sheets, o.id, o.status),

@@ -104,7 +104,8 @@ export async function listOrders(db: Db | Tx, viewer: SessionUser, query: Partia
   return rows.map(toSummary);
 }
 
-function toLine(l: repo.LineRow, buildSheet: LineBuildSheetSummary | null = null): OrderLineRecord {
+/** A line's own fields as the API shows them (orders and the engineer's line page share this). */
+export function lineFields(l: repo.LineRow): Omit<OrderLineRecord, 'buildSheet'> {
   return {
     id: l.id,
     lineNo: l.lineNo,
@@ -115,8 +116,11 @@ function toLine(l: repo.LineRow, buildSheet: LineBuildSheetSummary | null = null
     tolerancePercent: l.tolerancePercent,
     terminationNotes: l.terminationNotes,
     leadNotes: l.leadNotes,
-    buildSheet,
   };
+}
+
+function toLine(l: repo.LineRow, buildSheet: LineBuildSheetSummary | null = null): OrderLineRecord {
+  return { ...lineFields(l), buildSheet };
 }
 
 /** What a customer may see of an event: no staff names, no internal fields or notes. */

@@ -21,7 +21,7 @@
  */
 import { z } from 'zod';
 import { CoilSpecSchema, CoilTargetSchema, WireSizeSchema } from './coil';
-import { ORDER_STATUSES, RequirementSchema } from './orders';
+import { ORDER_STATUSES, orderLineRecord } from './orders';
 import { BUILD_SHEET_STATUSES } from './build-sheet-status';
 import { workOrderCreated } from './work-orders';
 import { stockCheck } from './stock';
@@ -197,17 +197,7 @@ export const startingSpec = z.object({
 export type StartingSpec = z.infer<typeof startingSpec>;
 
 /** GET /api/order-lines/:id — the line with its order, customer, requirement and every sheet. */
-export const orderLineDetail = z.object({
-  id: z.number().int(),
-  lineNo: z.number().int(),
-  quantity: z.number().int(),
-  title: z.string(),
-  customerPartNumber: z.string(),
-  requirement: RequirementSchema,
-  /** ± % on the resistance at 20 °C. */
-  tolerancePercent: z.number(),
-  terminationNotes: z.string(),
-  leadNotes: z.string(),
+export const orderLineDetail = orderLineRecord.omit({ buildSheet: true }).extend({
   order: z.object({
     id: z.number().int(),
     number: z.string(),
