@@ -23,6 +23,7 @@ import * as customerRepo from '../customers/repository';
 import type { Db, Tx } from '../db/client';
 import { HttpError, badRequest, conflict, notFound, ruleBroken } from '../http/errors';
 import * as orderRepo from '../orders/repository';
+import { notifyFloor } from '../floor/feed';
 import { lineFields, orderRecipients, transitionOrder, type NotificationSummary } from '../orders/service';
 import { getReleaseSettings } from '../settings/service';
 import * as stockRepo from '../stock/repository';
@@ -401,6 +402,8 @@ export async function releaseBuildSheet(
           note: `Build sheet v${previous.version} superseded by v${sheet.version}; its wire reservation was given back`,
         })),
       );
+      // The board hears of it like any other move.
+      for (const w of waiting) await notifyFloor(tx, { kind: 'move', id: w.id, number: w.number, stage: 'on_hold', version: w.version + 1, at: now.toISOString() });
     }
     const firstRelease = !previous && !(await repo.everReleased(tx, line.id, id));
 
@@ -455,6 +458,7 @@ export async function releaseBuildSheet(
       const takes = history ? [] : allocate(spools, wireNeeded(sheet.result.wireMass, quantity, scrapAllowancePercent));
       await stockRepo.insertReservations(tx, takes.map((t) => ({ spoolId: t.spoolId, workOrderId: wo.id, mass: t.mass })));
       released.push({ id: wo.id, number: wo.number, stage: wo.stage, quantity: wo.quantity, dueDate: wo.dueDate, version: wo.version });
+      if (!history) await notifyFloor(tx, { kind: 'release', id: wo.id, number: wo.number, stage: wo.stage, version: wo.version, at: now.toISOString() });
     }
 
     await repo.updateSheet(tx, id, {

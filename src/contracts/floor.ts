@@ -304,7 +304,7 @@ export type FloorLoadRow = z.infer<typeof loadRow>;
 // ── Live feed ──────────────────────────────────────────────────────────────────────────────
 
 /** What changed: a stage move, an assignment (person / station) or the priority. */
-export const FLOOR_CHANGE_KINDS = ['move', 'assign', 'priority'] as const;
+export const FLOOR_CHANGE_KINDS = ['move', 'assign', 'priority', 'release'] as const;
 
 /**
  * GET /api/floor/events (text/event-stream). On connect: `event: ready` (data `{}`); then one
