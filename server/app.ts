@@ -23,6 +23,7 @@ import { buildSheetsRouter } from './build-sheets/router';
 import { workOrdersRouter } from './work-orders/router';
 import { stockRouter } from './stock/router';
 import { floorRouter } from './floor/router';
+import { testRecordsRouter } from './test-records/router';
 
 const clientDir = path.resolve(import.meta.dirname, '..', 'dist', 'client');
 
@@ -43,6 +44,7 @@ export function apiRouters(deps: Deps): Router[] {
     travelersRouter(deps),
     settingsRouter(deps.db),
     floorRouter(deps),
+    testRecordsRouter(deps.db),
   ];
 }
 

@@ -119,6 +119,35 @@ ${button(link, 'Follow the order')}`,
     );
     return { subject, text, html };
   },
+
+  /** Internal: a unit failed its test (to the foremen); written with the failing record. */
+  unit_failed(p, ctx) {
+    const reasons = Array.isArray(p.reasons) ? (p.reasons as unknown[]).map(String) : [];
+    const link = `${ctx.publicUrl.replace(/\/$/, '')}/work-orders/${p.workOrderId}/tests`;
+    const subject = `Unit failed test: ${p.workOrderNumber} serial ${p.serial}${p.retest ? ' (retest)' : ''}`;
+    const text = [
+      `A unit failed its test and needs your disposition (rework, scrap, or use as is with the engineer's approval).`,
+      ``,
+      `Work order:      ${p.workOrderNumber}${p.lineTitle ? ` — ${p.lineTitle}` : ''}`,
+      `Serial:          ${p.serial}${p.retest ? ' (retest)' : ''}`,
+      `Nonconformance:  ${p.nonconformanceId}`,
+      ``,
+      `What failed:`,
+      ...reasons.map((r) => `  - ${r}`),
+      ``,
+      `Open the tests: ${link}`,
+      ``,
+      `— ${ctx.shopName}`,
+    ].join('\n');
+    const html = frame(
+      ctx,
+      'A unit failed its test',
+      `<p>Work order <strong>${esc(p.workOrderNumber)}</strong>${p.lineTitle ? ` (${esc(p.lineTitle)})` : ''}, serial <strong>${esc(p.serial)}</strong>${p.retest ? ' (retest)' : ''}, nonconformance ${esc(p.nonconformanceId)}, needs your disposition: rework, scrap, or use as is with the engineer's approval.</p>
+<ul>${reasons.map((r) => `<li>${esc(r)}</li>`).join('')}</ul>
+${button(link, 'Open the tests')}`,
+    );
+    return { subject, text, html };
+  },
 };
 
 export const MAIL_KINDS = Object.keys(renderers);

@@ -30,6 +30,7 @@ import { STAGES } from '../../src/contracts/stages';
 import { CONDUCTORS, WIRE_STANDARDS, type Conductor } from '../../src/contracts/stock';
 import { PRIORITY_DEFAULT, WORK_ORDER_EVENT_KINDS } from '../../src/contracts/work-orders';
 import { STATION_KINDS } from '../../src/contracts/floor';
+import { DISPOSITION_ACTIONS, INSTRUMENT_KINDS, NONCONFORMANCE_STATES, type Reading, type RecordTestRequest } from '../../src/contracts/test-records';
 import type { BuildSheet } from '../coil/types';
 
 export const roleEnum = pgEnum('role', ROLES);
@@ -456,4 +457,108 @@ export const stations = pgTable(
     ...timestamps,
   },
   (t) => [uniqueIndex('stations_name_unique').on(sql`lower(${t.name})`)],
+);
+
+// ── Test records ───────────────────────────────────────────────────────────────────────────
+
+export const instrumentKindEnum = pgEnum('instrument_kind', INSTRUMENT_KINDS);
+
+/** Test instruments with their calibration due date (a reading with an overdue one is refused). */
+export const instruments = pgTable(
+  'instruments',
+  {
+    id: serial('id').primaryKey(),
+    name: varchar('name', { length: 120 }).notNull(),
+    kind: instrumentKindEnum('kind').notNull(),
+    serial: varchar('serial', { length: 80 }).notNull(),
+    calibrationDue: date('calibration_due', { mode: 'string' }).notNull(),
+    active: boolean('active').notNull().default(true),
+    ...timestamps,
+  },
+  (t) => [uniqueIndex('instruments_kind_serial_unique').on(t.kind, sql`lower(${t.serial})`)],
+);
+
+/**
+ * One test of one unit (serial) of a work order: the readings as entered, the derived values,
+ * the limits used and the verdict. Never updated; a retest is a new row pointing at the earlier one.
+ * A serial's first test (retest_of_id null) is unique within the work order.
+ */
+export const testRecords = pgTable(
+  'test_records',
+  {
+    id: serial('id').primaryKey(),
+    workOrderId: integer('work_order_id')
+      .notNull()
+      .references(() => workOrders.id, { onDelete: 'restrict' }),
+    /** The build sheet judged against (the work order's at the time). */
+    buildSheetId: integer('build_sheet_id')
+      .notNull()
+      .references(() => buildSheets.id, { onDelete: 'restrict' }),
+    serial: varchar('serial', { length: 60 }).notNull(),
+    retestOfId: integer('retest_of_id').references((): AnyPgColumn => testRecords.id, { onDelete: 'restrict' }),
+    resistance: doublePrecision('resistance').notNull(),
+    temperature: doublePrecision('temperature').notNull(),
+    resistance20: doublePrecision('resistance20').notNull(),
+    nominalResistance20: doublePrecision('nominal_resistance20').notNull(),
+    tolerancePercent: doublePrecision('tolerance_percent').notNull(),
+    deviationPercent: doublePrecision('deviation_percent').notNull(),
+    deviationOhms: doublePrecision('deviation_ohms').notNull(),
+    passed: boolean('passed').notNull(),
+    reasons: jsonb('reasons').$type<string[]>().notNull(),
+    readings: jsonb('readings').$type<Reading[]>().notNull(),
+    entered: jsonb('entered').$type<RecordTestRequest>().notNull(),
+    instrumentIds: jsonb('instrument_ids').$type<number[]>().notNull().default(sql`'[]'::jsonb`),
+    /** The work order's station when tested (its winding station in practice). */
+    stationId: integer('station_id').references(() => stations.id, { onDelete: 'restrict' }),
+    testedBy: integer('tested_by').references(() => users.id, { onDelete: 'set null' }),
+    testedAt: timestamp('tested_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('test_records_wo_idx').on(t.workOrderId, t.serial),
+    uniqueIndex('test_records_first_serial_unique').on(t.workOrderId, t.serial).where(sql`${t.retestOfId} is null`),
+    index('test_records_tested_at_idx').on(t.testedAt),
+  ],
+);
+
+export const nonconformanceStateEnum = pgEnum('nonconformance_state', NONCONFORMANCE_STATES);
+export const dispositionActionEnum = pgEnum('disposition_action', DISPOSITION_ACTIONS);
+
+/** A failed test record opens one: what failed and by how much. The state follows its disposition. */
+export const nonconformances = pgTable(
+  'nonconformances',
+  {
+    id: serial('id').primaryKey(),
+    workOrderId: integer('work_order_id')
+      .notNull()
+      .references(() => workOrders.id, { onDelete: 'restrict' }),
+    testRecordId: integer('test_record_id')
+      .notNull()
+      .references(() => testRecords.id, { onDelete: 'restrict' }),
+    serial: varchar('serial', { length: 60 }).notNull(),
+    summary: text('summary').notNull(),
+    failed: jsonb('failed').$type<{ name: Reading['name']; value: number; limit: string; reason: string }[]>().notNull(),
+    state: nonconformanceStateEnum('state').notNull().default('open'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('nonconformances_record_unique').on(t.testRecordId), index('nonconformances_wo_idx').on(t.workOrderId, t.state)],
+);
+
+/** The one disposition of a nonconformance (never replaced); use as is adds the engineer's approval. */
+export const dispositions = pgTable(
+  'dispositions',
+  {
+    id: serial('id').primaryKey(),
+    nonconformanceId: integer('nonconformance_id')
+      .notNull()
+      .references(() => nonconformances.id, { onDelete: 'restrict' }),
+    action: dispositionActionEnum('action').notNull(),
+    reason: text('reason').notNull(),
+    returnTo: workOrderStageEnum('return_to'),
+    decidedBy: integer('decided_by').references(() => users.id, { onDelete: 'set null' }),
+    decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow(),
+    approvedBy: integer('approved_by').references(() => users.id, { onDelete: 'set null' }),
+    approvedAt: timestamp('approved_at', { withTimezone: true }),
+    approvalNote: text('approval_note'),
+  },
+  (t) => [uniqueIndex('dispositions_nc_unique').on(t.nonconformanceId)],
 );

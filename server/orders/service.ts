@@ -1,4 +1,5 @@
 import type { SessionUser } from '../../src/contracts/auth';
+import { scrappedByLine } from '../test-records/repository';
 import {
   ORDER_STATUS_LABELS,
   type CreateOrderRequest,
@@ -153,6 +154,7 @@ export async function getOrder(db: Db | Tx, viewer: SessionUser, id: number): Pr
   const names = await repo.userNames(db, [o.acknowledgedBy, o.createdBy]);
   const internal = viewer.role !== 'customer';
   const sheets = await lineSheetSummaries(db, lines, { internal });
+  const scrapped = internal ? await scrappedByLine(db, id) : null;
   const who = (uid: number | null) => (uid !== null && names.has(uid) ? { id: uid, name: names.get(uid)! } : null);
   const allEvents: OrderEventRecord[] = events.map(({ event: e, actorName }) => ({
     id: e.id,
@@ -173,7 +175,7 @@ export async function getOrder(db: Db | Tx, viewer: SessionUser, id: number): Pr
     }),
     cancelledAt: o.cancelledAt?.toISOString() ?? null,
     createdAt: o.createdAt.toISOString(),
-    lines: lines.map((l) => toLine(l, sheets.get(l.id) ?? null)),
+    lines: lines.map((l) => ({ ...toLine(l, sheets.get(l.id) ?? null), ...(scrapped && { scrapped: scrapped.get(l.id) ?? 0 }) })),
     attachments: files.map(({ attachment: a, uploaderName }) => ({
       id: a.id,
       lineId: a.lineId,

@@ -8,6 +8,7 @@ import { demoOrdersStep } from './orders';
 import { demoBuildSheetsStep } from './build-sheets';
 import { demoFloorStep } from './floor';
 import { demoShippedHistoryStep } from './history';
+import { demoTestRecordsStep } from './test-records';
 
 /** The demo sign-ins: `<role>@spoolwright.test`, one per role, all with this password. */
 export const DEMO_PASSWORD = 'spoolwright-demo';
@@ -74,6 +75,8 @@ export const SEED_STEPS: Step[] = [
   demoFloorStep,
   // Work orders of orders that shipped before shipments were recorded here (server/seed/history.ts).
   demoShippedHistoryStep,
+  // Instruments, and unit tests of the work orders in testing, inspection and rework (server/seed/test-records.ts).
+  demoTestRecordsStep,
 ];
 
 /** Runs the steps not yet recorded, each in its own transaction with its record. */

@@ -18,6 +18,7 @@ import { applyAssignment, applyMove, createStation } from '../floor/service';
 import { findUserByEmail } from '../users/repository';
 import { hashPassword, toSessionUser } from '../users/service';
 import { DEMO_PASSWORD } from './demo';
+import { testBatchForPacking } from './test-records';
 
 /** Invented stations: three winders, a termination bench, the varnish oven and a test bench. */
 const STATIONS: CreateStationBody[] = [
@@ -106,6 +107,7 @@ export async function seedFloor(db: Db) {
 
   let held = 0;
   let reworked = 0;
+  let packed = 0;
   for (const p of plan) {
     let version = p.version + 1; // the assignment bumped it
     const step = async (actor: SessionUser, to: Stage, extra: Record<string, unknown> = {}) => {
@@ -117,6 +119,8 @@ export async function seedFloor(db: Db) {
         const finishing = stage === 'terminating';
         // The winder's counter reads a turn or two over now and then; the spool is the one reserved.
         const extra = finishing ? { turnsCounter: p.turns + (p.id % 3 === 0 ? 2 : 0), spoolLot: lots.get(p.id) ?? anyLot.lot, stationId: p.station.id } : {};
+        // The packing gate needs every unit's test passed or dispositioned (server/seed/test-records.ts).
+        if (stage === 'packing') await testBatchForPacking(tx, p.person, p.id, packed++);
         await step(p.person, stage, extra);
       }
     };

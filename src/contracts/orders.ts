@@ -248,6 +248,11 @@ export const orderLineRecord = z.object({
    * the released sheet's essentials (see lineBuildSheetSummary in build-sheets.ts).
    */
   buildSheet: lineBuildSheetSummary.nullable(),
+  /**
+   * Staff only (GET /api/orders/:id): units of this line scrapped at test (test records); the
+   * shortfall against `quantity` the shop must make up.
+   */
+  scrapped: z.number().int().optional(),
 });
 export type OrderLineRecord = z.infer<typeof orderLineRecord>;
 

@@ -64,3 +64,20 @@ export async function moveOk(agent: Agent, id: number, to: string, extra: Record
   expect(res.status, JSON.stringify(res.body)).toBe(200);
   return res.body;
 }
+
+/**
+ * Records a passing first test for every unit of a work order (resistance at 20 °C exactly on the
+ * build sheet's nominal), so the packing gate's unit count is met. Serials `<WO number>-001` ….
+ */
+export async function passAllUnits(agent: Agent, id: number) {
+  const wo = await agent.get(`/api/work-orders/${id}`);
+  expect(wo.status, JSON.stringify(wo.body)).toBe(200);
+  for (let u = 1; u <= wo.body.quantity; u++) {
+    const res = await agent
+      .post(`/api/work-orders/${id}/test-records`)
+      .set(csrf)
+      .send({ serial: `${wo.body.number}-${String(u).padStart(3, '0')}`, resistance: wo.body.buildSheet.resistance20, temperature: 20 });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.passed).toBe(true);
+  }
+}
