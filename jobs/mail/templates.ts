@@ -49,6 +49,16 @@ function frame(ctx: MailContext, title: string, body: string) {
 const button = (href: string, label: string) =>
   `<p style="margin:20px 0"><a href="${esc(href)}" style="background:#b8632f;color:#ffffff;text-decoration:none;padding:10px 16px;font-weight:600">${esc(label)}</a></p>`;
 
+/** The order's references, as every customer message states them. */
+const orderFactsText = (p: Payload) => [
+  `Your purchase order: ${p.purchaseOrder}`,
+  `Our order number:    ${p.orderNumber}`,
+  `Requested ship date: ${fmtDate(p.dueDate)}`,
+];
+
+/** The plain-text close of every message: where to follow the order, and who wrote. */
+const signOffText = (ctx: MailContext, link: string) => [`Follow the order: ${link}`, ``, `— ${ctx.shopName}`];
+
 const renderers: Record<string, (p: Payload, ctx: MailContext) => RenderedMail> = {
   order_acknowledged(p, ctx) {
     const lines = (p.lines as Line[]) ?? [];
@@ -57,9 +67,7 @@ const renderers: Record<string, (p: Payload, ctx: MailContext) => RenderedMail> 
     const text = [
       `Thank you — we have your order.`,
       ``,
-      `Your purchase order: ${p.purchaseOrder}`,
-      `Our order number:    ${p.orderNumber}`,
-      `Requested ship date: ${fmtDate(p.dueDate)}`,
+      ...orderFactsText(p),
       ``,
       `Lines:`,
       linesText(lines),
@@ -67,9 +75,7 @@ const renderers: Record<string, (p: Payload, ctx: MailContext) => RenderedMail> 
       `What happens next: our engineers turn each line into a build sheet. We will write again when`,
       `the order is released to the winding floor, and when it ships, with the tracking number.`,
       ``,
-      `Follow the order: ${link}`,
-      ``,
-      `— ${ctx.shopName}`,
+      ...signOffText(ctx, link),
     ].join('\n');
     const html = frame(
       ctx,
@@ -94,9 +100,7 @@ ${button(link, 'Follow the order')}`,
       ``,
       `We released ${what} to production on ${fmtDate(p.releasedAt)}${batches > 1 ? `, in ${batches} batches` : ''}.`,
       ``,
-      `Your purchase order: ${p.purchaseOrder}`,
-      `Our order number:    ${p.orderNumber}`,
-      `Requested ship date: ${fmtDate(p.dueDate)}`,
+      ...orderFactsText(p),
       ``,
       `Lines on the order:`,
       linesText(lines),
@@ -105,9 +109,7 @@ ${button(link, 'Follow the order')}`,
       `sheet. We will write again when it ships, with the tracking number. Other lines of the order`,
       `follow as their build sheets are released.`,
       ``,
-      `Follow the order: ${link}`,
-      ``,
-      `— ${ctx.shopName}`,
+      ...signOffText(ctx, link),
     ].join('\n');
     const html = frame(
       ctx,

@@ -21,6 +21,20 @@ export const travelerJobKey = (workOrderId: number, buildSheetId: number) => `tr
 const queueDown = () => new HttpError(503, 'unavailable', 'The print queue is not reachable right now; try again shortly');
 
 /**
+ * Puts a print job on the queue once: the same job id answers a second request, and a job that
+ * failed is run again. An unreachable queue is a 503.
+ */
+async function enqueueOnce(queues: Queues, name: 'traveler' | 'batch', data: object, jobId: string) {
+  try {
+    const existing = await queues.travelers.getJob(jobId);
+    if (existing && (await existing.getState()) === 'failed') await existing.retry('failed');
+    else if (!existing) await queues.travelers.add(name, data, { jobId });
+  } catch {
+    throw queueDown();
+  }
+}
+
+/**
  * Asks for a work order's traveler. The job id is derived from the work order and its build
  * sheet, so asking twice (or a retry) never prints twice: the same job answers.
  */
@@ -28,13 +42,7 @@ export async function requestTraveler(db: Db, queues: Queues, workOrderId: numbe
   const [wo] = await repo.workOrdersByIds(db, [workOrderId]);
   if (!wo) throw notFound('No such work order');
   const jobId = travelerJobKey(wo.id, wo.buildSheetId);
-  try {
-    const existing = await queues.travelers.getJob(jobId);
-    if (existing && (await existing.getState()) === 'failed') await existing.retry('failed');
-    else if (!existing) await queues.travelers.add('traveler', { workOrderId: wo.id, userId: user.id }, { jobId });
-  } catch {
-    throw queueDown();
-  }
+  await enqueueOnce(queues, 'traveler', { workOrderId: wo.id, userId: user.id }, jobId);
   return { jobId: publicJobId('travelers', jobId) };
 }
 
@@ -48,13 +56,7 @@ export async function requestBatch(db: Db, queues: Queues, req: { orderId?: numb
   const ordered = ids.map((id) => found.find((f) => f.id === id)!);
   const key = createHash('sha256').update(ordered.map((w) => `${w.id}:${w.buildSheetId}`).join(',')).digest('hex').slice(0, 24);
   const jobId = `batch-${key}`;
-  try {
-    const existing = await queues.travelers.getJob(jobId);
-    if (existing && (await existing.getState()) === 'failed') await existing.retry('failed');
-    else if (!existing) await queues.travelers.add('batch', { workOrderIds: ordered.map((w) => w.id), userId: user.id, key }, { jobId });
-  } catch {
-    throw queueDown();
-  }
+  await enqueueOnce(queues, 'batch', { workOrderIds: ordered.map((w) => w.id), userId: user.id, key }, jobId);
   return { jobId: publicJobId('travelers', jobId), count: ordered.length };
 }
 

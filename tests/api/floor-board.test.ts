@@ -1,19 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { AddressInfo } from 'node:net';
-import type { Server } from 'node:http';
 import { CSRF_HEADER, CSRF_VALUE } from '../../src/contracts/errors';
 import { SHOP_DEFAULTS } from '../../server/settings/service';
-import { DEMO_PASSWORD, demoEmail } from '../../server/seed/demo';
+import { DEMO_PASSWORD } from '../../server/seed/demo';
 import { csrf, testApp } from '../helpers/app';
 import { inDays, newCompany } from '../helpers/orders';
-import { floorUser, moveOk, newStation, receiveFloorWire, releasedWorkOrders, type Wo } from '../helpers/floor';
+import { floorUser, moveOk, openFloorFeed, newStation, receiveFloorWire, releasedWorkOrders, type Wo } from '../helpers/floor';
 
 const t = testApp();
-let server: Server | undefined;
-afterAll(async () => {
-  await new Promise((r) => (server ? server.close(r) : r(null)));
-  await t.close();
-});
+afterAll(() => t.close());
 
 type Agent = Awaited<ReturnType<typeof t.signIn>>;
 let foreman: Agent;
@@ -135,31 +129,11 @@ describe('the load view', () => {
 
 describe('the live feed', () => {
   it('delivers a message over server-sent events after a move', async () => {
-    server = t.app.listen(0);
-    const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-    const login = await fetch(`${base}/api/auth/login`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json', [CSRF_HEADER]: CSRF_VALUE },
-      body: JSON.stringify({ email: demoEmail('foreman'), password: DEMO_PASSWORD }),
-    });
-    expect(login.status).toBe(200);
-    const cookie = login.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-    const ctrl = new AbortController();
-    const stream = await fetch(`${base}/api/floor/events`, { headers: { cookie }, signal: ctrl.signal });
+    const feed = await openFloorFeed(t);
+    const { base, cookie, stream } = feed;
     expect(stream.status).toBe(200);
     expect(stream.headers.get('content-type')).toMatch(/text\/event-stream/);
-    const reader = stream.body!.getReader();
-    const decoder = new TextDecoder();
-    let text = '';
-    const readUntil = async (pattern: RegExp) => {
-      const deadline = Date.now() + 5000;
-      while (!pattern.test(text)) {
-        if (Date.now() > deadline) throw new Error(`no ${pattern} in: ${text}`);
-        const { value, done } = await reader.read();
-        if (done) throw new Error(`stream ended: ${text}`);
-        text += decoder.decode(value, { stream: true });
-      }
-    };
+    const readUntil = feed.readUntil;
     await readUntil(/event: ready/);
     const w = later[0];
     const moved = await fetch(`${base}/api/work-orders/${w.id}/move`, {
@@ -169,11 +143,11 @@ describe('the live feed', () => {
     });
     expect(moved.status).toBe(200);
     await readUntil(new RegExp(`"id":${w.id}[,}]`));
-    const block = text.split('\n\n').find((b) => b.includes(`"id":${w.id}`))!;
+    const block = feed.text.split('\n\n').find((b) => b.includes(`"id":${w.id}`))!;
     expect(block).toMatch(/^event: work-order$/m);
     const data = JSON.parse(block.split('\n').find((l) => l.startsWith('data: '))!.slice(6));
     expect(data).toMatchObject({ kind: 'move', id: w.id, number: w.number, stage: 'winding', version: w.version + 1 });
-    ctrl.abort();
+    feed.close();
   });
 });
 

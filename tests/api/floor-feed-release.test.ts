@@ -1,19 +1,11 @@
-import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { afterAll, describe, expect, it } from 'vitest';
-import { CSRF_HEADER, CSRF_VALUE } from '../../src/contracts/errors';
-import { DEMO_PASSWORD, demoEmail } from '../../server/seed/demo';
 import { csrf, testApp } from '../helpers/app';
 import { acknowledgedOrder, approvedSheet } from '../helpers/build-sheets';
-import { floorSpec, receiveFloorWire } from '../helpers/floor';
+import { floorSpec, openFloorFeed, receiveFloorWire } from '../helpers/floor';
 import { newCompany } from '../helpers/orders';
 
 const t = testApp();
-let server: Server | undefined;
-afterAll(async () => {
-  server?.close();
-  await t.close();
-});
+afterAll(() => t.close());
 
 describe('the board hears of releases and of work orders a new sheet version puts on hold', () => {
   it('sends a release message per new work order, and a move to on_hold when a sheet is superseded', async () => {
@@ -25,30 +17,10 @@ describe('the board hears of releases and of work orders a new sheet version put
     const lineId = order.lines[0].id;
     const v1 = await approvedSheet(engineer, lineId, floorSpec());
 
-    server = t.app.listen(0);
-    const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-    const login = await fetch(`${base}/api/auth/login`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json', [CSRF_HEADER]: CSRF_VALUE },
-      body: JSON.stringify({ email: demoEmail('foreman'), password: DEMO_PASSWORD }),
-    });
-    const cookie = login.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-    const ctrl = new AbortController();
-    const stream = await fetch(`${base}/api/floor/events`, { headers: { cookie }, signal: ctrl.signal });
-    const reader = stream.body!.getReader();
-    const decoder = new TextDecoder();
-    let text = '';
-    const readUntil = async (pattern: RegExp) => {
-      const deadline = Date.now() + 5000;
-      while (!pattern.test(text)) {
-        if (Date.now() > deadline) throw new Error(`no ${pattern} in: ${text}`);
-        const { value, done } = await reader.read();
-        if (done) throw new Error(`stream ended: ${text}`);
-        text += decoder.decode(value, { stream: true });
-      }
-    };
+    const feed = await openFloorFeed(t);
+    const readUntil = feed.readUntil;
     const messages = () =>
-      text
+      feed.text
         .split('\n\n')
         .filter((b) => b.startsWith('event: work-order'))
         .map((b) => JSON.parse(b.split('\n').find((l) => l.startsWith('data: '))!.slice(6)) as { kind: string; id: number; stage: string });
@@ -66,7 +38,7 @@ describe('the board hears of releases and of work orders a new sheet version put
       expect(second.status, JSON.stringify(second.body)).toBe(200);
       for (const id of ids) await readUntil(new RegExp(`"kind":"move","id":${id},[^}]*"stage":"on_hold"`));
     } finally {
-      ctrl.abort();
+      feed.close();
     }
   });
 });

@@ -81,3 +81,46 @@ export async function passAllUnits(agent: Agent, id: number) {
     expect(res.body.passed).toBe(true);
   }
 }
+
+/**
+ * Opens the board's live feed as a signed-in foreman over a real HTTP connection (the app listens
+ * on a free port). `readUntil` reads the stream until a pattern appears (5 s at most); `text` is
+ * everything read so far; `close` ends the stream and the listener.
+ */
+export async function openFloorFeed(t: T) {
+  const { CSRF_HEADER, CSRF_VALUE } = await import('../../src/contracts/errors');
+  const { DEMO_PASSWORD, demoEmail } = await import('../../server/seed/demo');
+  const server = t.app.listen(0);
+  const base = `http://127.0.0.1:${(server.address() as import('node:net').AddressInfo).port}`;
+  const login = await fetch(`${base}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', [CSRF_HEADER]: CSRF_VALUE },
+    body: JSON.stringify({ email: demoEmail('foreman'), password: DEMO_PASSWORD }),
+  });
+  expect(login.status).toBe(200);
+  const cookie = login.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  const ctrl = new AbortController();
+  const stream = await fetch(`${base}/api/floor/events`, { headers: { cookie }, signal: ctrl.signal });
+  const reader = stream.body!.getReader();
+  const decoder = new TextDecoder();
+  const feed = {
+    base,
+    cookie,
+    stream,
+    text: '',
+    async readUntil(pattern: RegExp) {
+      const deadline = Date.now() + 5000;
+      while (!pattern.test(feed.text)) {
+        if (Date.now() > deadline) throw new Error(`no ${pattern} in: ${feed.text}`);
+        const { value, done } = await reader.read();
+        if (done) throw new Error(`stream ended: ${feed.text}`);
+        feed.text += decoder.decode(value, { stream: true });
+      }
+    },
+    close() {
+      ctrl.abort();
+      server.close();
+    },
+  };
+  return feed;
+}
