@@ -15,6 +15,9 @@ export function calculationsRouter() {
   r.post('/coil/sweep', allow(...CALCULATORS), (req, res) => {
     res.json(coil.sweep(parse(CoilSpecSchema, req.body)));
   });
+  r.get('/coil/reference', allow(...CALCULATORS), (_req, res) => {
+    res.json(coil.reference());
+  });
   r.post('/coil/profile', allow(...CALCULATORS), (req, res) => {
     res.json(coil.profile(parse(CoilSpecSchema, req.body)));
   });

@@ -1,6 +1,6 @@
 import type { CoilSolveRequest, CoilSpec } from '../../src/contracts/coil';
-import type { CoilProfileResponse } from '../../src/contracts/coil';
-import { CoilSpecError, designCoil, fieldAlongAxis, pullAgainstGap, solveCoil, sweepWireSizes, warmUpCurve } from '../coil';
+import type { CoilProfileResponse, CoilReferenceResponse } from '../../src/contracts/coil';
+import { CONDUCTORS, CoilSpecError, designCoil, THERMAL_CLASSES, fieldAlongAxis, pullAgainstGap, solveCoil, sweepWireSizes, warmUpCurve } from '../coil';
 import { badRequest } from '../http/errors';
 
 /** Runs the engine; a spec it refuses becomes 400 `validation` naming the field. */
@@ -36,3 +36,6 @@ export const profile = (spec: CoilSpec): CoilProfileResponse =>
     }
     return { field, pull, warmUp: warmUpCurve(sheet, 81) };
   });
+
+/** The engine's constants, for the engineer's reference panel (one source: server/coil). */
+export const reference = (): CoilReferenceResponse => ({ conductors: CONDUCTORS, thermalClasses: [...THERMAL_CLASSES] });

@@ -173,3 +173,18 @@ export const coilProfileResponse = z.object({
   warmUp: z.array(z.object({ t: z.number(), T: z.number() })),
 });
 export type CoilProfileResponse = z.infer<typeof coilProfileResponse>;
+
+/** GET /api/coil/reference: the engine's own conductor constants (SI) with their sources. */
+const conductorReference = z.object({
+  resistivity20: z.number(),
+  alpha20: z.number(),
+  density: z.number(),
+  specificHeat: z.number(),
+  resistanceMethodK: z.number(),
+  sources: z.record(z.string(), z.string()),
+});
+export const coilReferenceResponse = z.object({
+  conductors: z.object({ copper: conductorReference, aluminium: conductorReference }),
+  thermalClasses: z.array(z.number()),
+});
+export type CoilReferenceResponse = z.infer<typeof coilReferenceResponse>;

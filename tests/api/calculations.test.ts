@@ -128,3 +128,18 @@ describe('POST /api/coil/profile (the curves the build sheet draws)', () => {
     expect(res.body.error.fields.dutyCycle).toBeTruthy();
   });
 });
+
+describe('GET /api/coil/reference (the engineer’s reference panel)', () => {
+  it('serves the engine’s constants: IEC 60028 copper and the IEC 60085 classes', async () => {
+    const res = await engineer.get('/api/coil/reference');
+    expect(res.status).toBe(200);
+    const cu = res.body.conductors.copper;
+    expect(cu.resistivity20).toBeCloseTo(1e-6 / 58, 15); // IEC 60028: 1/58 Ω·mm²/m at 20 °C
+    expect(cu.alpha20).toBe(0.00393); // IEC 60028
+    expect(cu.density).toBe(8890); // IEC 60028: 8.89 g/cm³
+    expect(cu.resistanceMethodK).toBe(234.5); // IEC 60034-1 / IEEE Std 118
+    expect(res.body.conductors.aluminium.resistanceMethodK).toBe(225); // IEC 60034-1
+    expect(res.body.thermalClasses).toEqual([105, 120, 130, 155, 180, 200, 220]); // IEC 60085
+    expect(cu.sources.resistivity20).toMatch(/IEC 60028/);
+  });
+});

@@ -1,29 +1,32 @@
+import { useQuery } from '@tanstack/react-query';
 import type { SessionUser } from '../../contracts/auth';
+import { coilReferenceResponse } from '../../contracts/coil';
+import { Alert } from '../../components/Alert';
+import { api, errorMessage } from '../../lib/api';
 import { Panel } from '../../components/Panel';
 import { useUnits } from '../../lib/session';
 import { EngineeringHomePanel } from '../engineering';
 import { formatNumber, fromKelvinDifference, temperatureDifferenceSymbol } from '../../lib/units';
 import { AccountPanel, DutiesPanel, HomeFrame } from './parts';
 
-/** IEC 60085 thermal classes (°C) with their letter designations (letters from memory). */
-const THERMAL_CLASSES: { celsius: number; letter: string }[] = [
-  { celsius: 105, letter: 'A' },
-  { celsius: 120, letter: 'E' },
-  { celsius: 130, letter: 'B' },
-  { celsius: 155, letter: 'F' },
-  { celsius: 180, letter: 'H' },
-  { celsius: 200, letter: 'N' },
-  { celsius: 220, letter: 'R' },
-];
+/** IEC 60085 letter designations of the thermal classes (letters from memory). */
+const CLASS_LETTERS: Record<number, string> = { 105: 'A', 120: 'E', 130: 'B', 155: 'F', 180: 'H', 200: 'N', 220: 'R' };
 
-/** Annealed copper per IEC 60028: resistivity 1/58 Ω·mm²/m and α = 0.00393 /K, both at 20 °C. */
-const COPPER_ALPHA_PER_K = 0.00393;
-const COPPER_RESISTIVITY = 1 / 58; // Ω·mm²/m
+const referenceQuery = {
+  queryKey: ['coil', 'reference'],
+  queryFn: ({ signal }: { signal: AbortSignal }) => api.get('/coil/reference', { schema: coilReferenceResponse, signal }),
+  staleTime: Infinity,
+};
 
+/** The engine's own constants (served from server/coil), in the user's units. */
 function ReferencePanel() {
   const u = useUnits();
+  const ref = useQuery(referenceQuery);
+  if (!ref.data) return ref.error ? <Alert title="Cannot load the reference">{errorMessage(ref.error)}</Alert> : null;
+  const cu = ref.data.conductors.copper;
   // α is "per degree of difference": per K, or per °F (a 1 °F step is 5/9 K).
-  const alpha = COPPER_ALPHA_PER_K / fromKelvinDifference(1, u.prefs.temperatureUnit);
+  const alpha = cu.alpha20 / fromKelvinDifference(1, u.prefs.temperatureUnit);
+  const k = cu.resistanceMethodK;
   return (
     <Panel title="Shop reference">
       <div className="grid gap-5 md:grid-cols-2">
@@ -38,11 +41,11 @@ function ReferencePanel() {
               </tr>
             </thead>
             <tbody>
-              {THERMAL_CLASSES.map((c) => (
-                <tr key={c.celsius} className="border-b border-graphite-100">
-                  <td className="py-1 font-semibold">{c.celsius}</td>
-                  <td className="py-1">{c.letter}</td>
-                  <td className="py-1 text-right">{u.temperature(c.celsius, 0)}</td>
+              {ref.data.thermalClasses.map((c) => (
+                <tr key={c} className="border-b border-graphite-100">
+                  <td className="py-1 font-semibold">{c}</td>
+                  <td className="py-1">{CLASS_LETTERS[c] ?? '—'}</td>
+                  <td className="py-1 text-right">{u.temperature(c, 0)}</td>
                 </tr>
               ))}
             </tbody>
@@ -52,18 +55,18 @@ function ReferencePanel() {
           <h3 className="mb-1 text-sm font-bold tracking-wide text-graphite-500 uppercase">Annealed copper (IEC 60028)</h3>
           <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1.5 text-sm">
             <dt className="text-graphite-600">Resistivity at {u.temperature(20, 0)}</dt>
-            <dd className="font-semibold">{formatNumber(COPPER_RESISTIVITY, 6)}&nbsp;Ω·mm²/m</dd>
+            <dd className="font-semibold">{formatNumber(cu.resistivity20 * 1e6, 6)}&nbsp;Ω·mm²/m</dd>
             <dt className="text-graphite-600">Temperature coefficient α</dt>
             <dd className="font-semibold">
               {formatNumber(alpha, 5)}&nbsp;/{temperatureDifferenceSymbol(u.prefs.temperatureUnit)}
             </dd>
             <dt className="text-graphite-600">Density</dt>
-            <dd className="font-semibold">8.89&nbsp;g/cm³</dd>
+            <dd className="font-semibold">{formatNumber(cu.density / 1000, 2)}&nbsp;g/cm³</dd>
             <dt className="text-graphite-600">Copper temperature constant</dt>
-            <dd className="font-semibold">234.5 (IEC 60034-1)</dd>
+            <dd className="font-semibold">{k} (IEC 60034-1)</dd>
           </dl>
           <p className="mt-3 text-sm text-graphite-600">
-            Hot resistance by the resistance method: R<sub>2</sub> = R<sub>1</sub> · (234.5 + θ<sub>2</sub>) / (234.5 + θ<sub>1</sub>), θ in °C.
+            Hot resistance by the resistance method: R<sub>2</sub> = R<sub>1</sub> · ({k} + θ<sub>2</sub>) / ({k} + θ<sub>1</sub>), θ in °C.
           </p>
         </div>
       </div>
