@@ -25,7 +25,8 @@ import { stockRouter } from './stock/router';
 import { floorRouter } from './floor/router';
 import { testRecordsRouter } from './test-records/router';
 
-const clientDir = path.resolve(import.meta.dirname, '..', 'dist', 'client');
+/** The built client; CLIENT_DIR (relative to the project) lets parallel work trees' browser tests use their own build. */
+const clientDir = path.resolve(import.meta.dirname, '..', process.env.CLIENT_DIR ?? path.join('dist', 'client'));
 
 /** The routers of every business component, mounted under /api. Add new features here. */
 export function apiRouters(deps: Deps): Router[] {

@@ -75,9 +75,10 @@ function stop(child: ChildProcess): Promise<void> {
 
 export default async function setup(project: TestProject) {
   await resetTestDatabase();
-  if (!existsSync(path.join(root, 'dist', 'client', 'index.html'))) {
-    console.log('e2e: dist/client is missing; building the client');
-    const build = spawnSync('npx', ['vite', 'build'], { cwd: root, stdio: 'inherit' });
+  const clientDir = process.env.CLIENT_DIR ?? path.join('dist', 'client');
+  if (!existsSync(path.join(root, clientDir, 'index.html'))) {
+    console.log(`e2e: ${clientDir} is missing; building the client`);
+    const build = spawnSync('npx', ['vite', 'build', '--outDir', clientDir], { cwd: root, stdio: 'inherit' });
     if (build.status !== 0) throw new Error('e2e: `npx vite build` failed');
   }
   if (await portInUse(E2E_PORT)) {
