@@ -62,7 +62,9 @@ function toSummary(r: Row, c: Ctx): WorkOrderSummary {
 }
 
 async function context(db: Db | Tx, viewer: SessionUser, rows: Row[]): Promise<Ctx> {
-  const [settings, tests] = await Promise.all([getFloorSettings(db), unitTestGate(db, rows.map((r) => r.wo.id))]);
+  // One after the other: inside a transaction `db` is a single connection (pg refuses overlapping queries on one client).
+  const settings = await getFloorSettings(db);
+  const tests = await unitTestGate(db, rows.map((r) => r.wo.id));
   return { viewer, settings, today: localDate(), tests };
 }
 
@@ -95,7 +97,8 @@ export async function getWorkOrder(db: Db | Tx, viewer: SessionUser, id: number)
   const [row] = await repo.listWorkOrders(db, { id, customerId: scopeFor(viewer) });
   if (!row) throw notFound('No such work order');
   const internal = viewer.role !== 'customer';
-  const [c, events] = await Promise.all([context(db, viewer, [row]), repo.listEvents(db, id)]);
+  const c = await context(db, viewer, [row]);
+  const events = await repo.listEvents(db, id);
   return {
     ...toSummary(row, c),
     buildSheet: internal ? sheetEssentials(row.sheet, row.line.tolerancePercent) : null,
