@@ -1,6 +1,6 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { Db, Tx } from '../db/client';
-import { spools, stations, users } from '../db/schema';
+import { buildSheets, spools, stations, users, workOrders } from '../db/schema';
 
 export type StationRow = typeof stations.$inferSelect;
 
@@ -57,4 +57,17 @@ export function activeFloorUsers(db: Db | Tx) {
 export async function spoolLotExists(db: Db | Tx, lot: string) {
   const [row] = await db.select({ id: spools.id }).from(spools).where(sql`lower(${spools.lot}) = ${lot.toLowerCase()}`).limit(1);
   return !!row;
+}
+
+/** Each work order's wire: the bare diameter (m) its released build sheet winds with. */
+export function wireOfWorkOrders(db: Db | Tx, ids: number[]) {
+  return db
+    .select({
+      id: workOrders.id,
+      number: workOrders.number,
+      bareDiameter: sql<number | null>`(${buildSheets.result} -> 'wire' ->> 'bareDiameter')::float8`,
+    })
+    .from(workOrders)
+    .innerJoin(buildSheets, eq(buildSheets.id, workOrders.buildSheetId))
+    .where(inArray(workOrders.id, ids.length ? ids : [-1]));
 }

@@ -96,6 +96,35 @@ async function usableStation(tx: Db | Tx, id: number, field = 'stationId') {
   return s;
 }
 
+/** A millimetre figure for messages: three significant digits. */
+const mm = (m: number) => `${Number((m * 1000).toPrecision(3))} mm`;
+
+/**
+ * The work orders whose wire lies outside a station's wire-size range (bare diameter, edges
+ * inclusive), each with the reason in words. A station without a range takes any wire.
+ */
+export function wireOutsideStation(
+  station: { name: string; wireDiameterMin: number | null; wireDiameterMax: number | null },
+  wires: { number: string; bareDiameter: number | null }[],
+): { number: string; reason: string }[] {
+  const { wireDiameterMin: min, wireDiameterMax: max } = station;
+  if (min === null && max === null) return [];
+  const range = min !== null && max !== null ? `${mm(min)} to ${mm(max)}` : min !== null ? `${mm(min)} and up` : `up to ${mm(max!)}`;
+  return wires
+    .filter((w) => w.bareDiameter !== null && ((min !== null && w.bareDiameter < min) || (max !== null && w.bareDiameter > max)))
+    .map((w) => ({ number: w.number, reason: `${w.number} winds ${mm(w.bareDiameter!)} wire; ${station.name} takes ${range}` }));
+}
+
+/** 422 when a winder's wire-size range does not take these work orders' wire. */
+async function checkStationWire(tx: Db | Tx, station: repo.StationRow, workOrderIds: number[]) {
+  if (station.kind !== 'winder') return;
+  const outside = wireOutsideStation(station, await repo.wireOfWorkOrders(tx, workOrderIds));
+  if (outside.length) {
+    const why = outside.map((o) => o.reason).join('; ');
+    throw new HttpError(422, 'rule', `${why}. Nothing was changed`, { stationId: why }, { rule: 'station_wire_range' });
+  }
+}
+
 // ── Moves ──────────────────────────────────────────────────────────────────────────────────
 
 const stale = async (tx: Tx, actor: SessionUser, id: number) =>
@@ -146,6 +175,7 @@ export async function applyMove(tx: Tx, actor: SessionUser, id: number, input: M
     if (!s || !s.active) {
       throw new HttpError(422, 'rule', s ? `Station ${s.name} is not in use` : 'No such station', { stationId: s ? `${s.name} is not in use` : 'No such station' }, { rule: 'station_unusable' });
     }
+    await checkStationWire(tx, s, [id]);
   }
   if (input.spoolLot !== undefined && !(await repo.spoolLotExists(tx, input.spoolLot))) {
     throw new HttpError(422, 'rule', `No spool with lot ${input.spoolLot} is in stock`, { spoolLot: 'No spool with this lot in stock' }, { rule: 'winding_record' });
@@ -208,6 +238,7 @@ export async function applyAssignment(tx: Tx, actor: SessionUser, input: AssignW
     person = { id: u.id, name: u.name };
   }
   const station = input.stationId != null ? await usableStation(tx, input.stationId) : null;
+  if (station) await checkStationWire(tx, station, input.ids);
 
   const set: { assigneeId?: number | null; stationId?: number | null } = {};
   if (input.assigneeId !== undefined) set.assigneeId = person?.id ?? null;

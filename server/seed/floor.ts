@@ -76,7 +76,12 @@ export async function seedFloor(db: Db) {
 
   // The released work orders of orders in production.
   const wos = await db
-    .select({ id: workOrders.id, version: workOrders.version, turns: sql<number>`(${buildSheets.result}->>'turns')::int` })
+    .select({
+      id: workOrders.id,
+      version: workOrders.version,
+      turns: sql<number>`(${buildSheets.result}->>'turns')::int`,
+      bareDiameter: sql<number>`(${buildSheets.result}->'wire'->>'bareDiameter')::float8`,
+    })
     .from(workOrders)
     .innerJoin(orders, eq(orders.id, workOrders.orderId))
     .innerJoin(buildSheets, eq(buildSheets.id, workOrders.buildSheetId))
@@ -94,16 +99,25 @@ export async function seedFloor(db: Db) {
   );
   const [anyLot] = await db.select({ lot: spools.lot }).from(spools).limit(1);
 
-  // Assign: each person gets a winder of their own (two share the third), in batches.
-  const plan = wos.slice(0, TARGETS.length).map((w, i) => ({ ...w, target: TARGETS[i], person: staff[i % staff.length], station: winders[i % staff.length % winders.length] }));
-  for (const [k, person] of staff.entries()) {
+  // Assign: each person works mostly at a winder of their own (two share the third), in
+  // batches; a job whose wire that winder does not take goes to the first winder that does.
+  const takes = (st: (typeof winders)[number], d: number) => (st.wireDiameterMin === null || d >= st.wireDiameterMin) && (st.wireDiameterMax === null || d <= st.wireDiameterMax);
+  const winderFor = (k: number, d: number) => [winders[k % winders.length], ...winders].find((st) => takes(st, d)) ?? winders[k % winders.length];
+  const plan = wos.slice(0, TARGETS.length).map((w, i) => {
+    const k = i % staff.length;
+    return { ...w, target: TARGETS[i], person: staff[k], station: winderFor(k, w.bareDiameter) };
+  });
+  for (const person of staff) {
     const mine = plan.filter((p) => p.person.id === person.id);
-    if (!mine.length) continue;
-    await applyAssignment(tx, foreman, { ids: mine.map((p) => p.id), assigneeId: person.id, stationId: winders[k % winders.length].id });
+    for (const station of winders) {
+      const batch = mine.filter((p) => p.station.id === station.id);
+      if (batch.length) await applyAssignment(tx, foreman, { ids: batch.map((p) => p.id), assigneeId: person.id, stationId: station.id });
+    }
   }
   // A few more ready ones waiting for a winder, nobody assigned yet.
   const waiting = wos.slice(TARGETS.length, TARGETS.length + 4);
-  if (waiting.length) await applyAssignment(tx, foreman, { ids: waiting.map((w) => w.id), stationId: winders[0].id });
+  const waitingHere = waiting.filter((w) => takes(winders[0], w.bareDiameter));
+  if (waitingHere.length) await applyAssignment(tx, foreman, { ids: waitingHere.map((w) => w.id), stationId: winders[0].id });
 
   let held = 0;
   let reworked = 0;

@@ -159,6 +159,8 @@ export const FLOOR_STAGES = FLOW_STAGES.slice(FLOW_STAGES.indexOf('ready'), FLOW
  *   winding_record        leaving winding forward records turnsCounter, spoolLot and a station (fields)
  *   winding_data_misplaced turnsCounter / spoolLot are given only when leaving winding forward (fields)
  *   station_unusable      the station is unknown or inactive (fields.stationId)
+ *   station_wire_range    a winder's wire-size range does not take the work order's wire (also
+ *                         refused when assigning work to that winder; fields.stationId)
  */
 export const MOVE_RULES = [
   'same_stage',
@@ -175,6 +177,7 @@ export const MOVE_RULES = [
   'winding_record',
   'winding_data_misplaced',
   'station_unusable',
+  'station_wire_range',
 ] as const;
 export type MoveRule = (typeof MOVE_RULES)[number];
 
