@@ -36,7 +36,7 @@ export function apiRouters(deps: Deps): Router[] {
     customersRouter(deps.db),
     ordersRouter(deps.db),
     attachmentsRouter(deps.db, deps.storage),
-    calculationsRouter(),
+    calculationsRouter(deps.db),
     jobsRouter(deps),
     notificationsRouter(deps),
     buildSheetsRouter(deps),

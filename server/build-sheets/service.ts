@@ -25,7 +25,7 @@ import { HttpError, badRequest, conflict, notFound, ruleBroken } from '../http/e
 import * as orderRepo from '../orders/repository';
 import { notifyFloor } from '../floor/feed';
 import { lineFields, orderRecipients, transitionOrder, type NotificationSummary } from '../orders/service';
-import { getReleaseSettings } from '../settings/service';
+import { getReleaseSettings, withShopHeatTransfer } from '../settings/service';
 import * as stockRepo from '../stock/repository';
 import { allocate, freeSpools, stockCheckOf, wireNeeded } from '../stock/service';
 import * as woRepo from '../work-orders/repository';
@@ -232,7 +232,9 @@ export async function draftBuildSheet(
   actor: SessionUser,
   opts: ServiceOpts = {},
 ): Promise<BuildSheetRecord> {
-  const result = design(input.spec);
+  // A spec naming no heat-transfer coefficient gets the shop's adopted default (if any), stored with the sheet.
+  const spec = await withShopHeatTransfer(db, input.spec);
+  const result = design(spec);
   const id = await db.transaction(async (tx) => {
     const line = await repo.lockLine(tx, lineId);
     if (!line) throw notFound('No such order line');
@@ -243,7 +245,7 @@ export async function draftBuildSheet(
       lineId,
       version,
       status: 'draft',
-      spec: input.spec,
+      spec,
       target: input.target,
       result,
       engineVersion: ENGINE_VERSION,

@@ -1,4 +1,5 @@
 import { inArray } from 'drizzle-orm';
+import { HEAT_TRANSFER_MAX, HEAT_TRANSFER_MIN } from '../../src/contracts/settings';
 import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
 import { appMeta } from '../db/schema';
@@ -39,6 +40,13 @@ export const SHOP_DEFAULTS = {
     inspection: { minutesPerUnit: 1, minutesPerBatch: 10 },
     packing: { minutesPerUnit: 1, minutesPerBatch: 15 },
   }),
+  /**
+   * Heat-transfer coefficient for new build sheets whose spec names none, W/(m²·K); '' = the
+   * engine's default. Who adopted it (user id) and when (ISO time), '' when nobody did.
+   */
+  defaultHeatTransferCoefficient: '',
+  defaultHeatTransferCoefficientAdoptedBy: '',
+  defaultHeatTransferCoefficientAdoptedAt: '',
 };
 export type ShopSettings = typeof SHOP_DEFAULTS;
 
@@ -117,4 +125,21 @@ export async function getFloorSettings(db: Db | Tx): Promise<FloorSettings> {
     defaultSetupSeconds: inRange(s.defaultSetupSeconds, SHOP_DEFAULTS.defaultSetupSeconds, 8 * 3600, true),
     stageStandardTimes: times,
   };
+}
+
+/** The shop's heat-transfer default, W/(m²·K), or null (the engine's default applies). */
+export async function getHeatTransferDefault(db: Db | Tx): Promise<number | null> {
+  const v = (await getShopSettings(db)).defaultHeatTransferCoefficient;
+  const n = Number(v);
+  return v !== '' && Number.isFinite(n) && n >= HEAT_TRANSFER_MIN && n <= HEAT_TRANSFER_MAX ? n : null;
+}
+
+/**
+ * A spec with the shop's heat-transfer default filled in where it names none. The engine stays
+ * pure: the default reaches it through the spec, as if the engineer had typed it.
+ */
+export async function withShopHeatTransfer<S extends { heatTransferCoefficient?: number }>(db: Db | Tx, spec: S): Promise<S> {
+  if (spec.heatTransferCoefficient !== undefined) return spec;
+  const h = await getHeatTransferDefault(db);
+  return h === null ? spec : { ...spec, heatTransferCoefficient: h };
 }

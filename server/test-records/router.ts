@@ -1,5 +1,6 @@
 import { Router } from 'express';
 import { STAFF_ROLES } from '../../src/contracts/roles';
+import { adoptHeatTransferRequest } from '../../src/contracts/settings';
 import { approveRequest, createInstrumentRequest, dispositionRequest, recordTestRequest, serialsRequest, updateInstrumentRequest } from '../../src/contracts/test-records';
 import type { Db } from '../db/client';
 import { allow, currentUser } from '../http/access';
@@ -45,6 +46,9 @@ export function testRecordsRouter(db: Db) {
   });
   r.get('/quality/design-feedback', allow('engineer', 'admin'), async (_req, res) => {
     res.json(await tests.designFeedback(db));
+  });
+  r.post('/quality/design-feedback/adopt', allow('engineer', 'admin'), async (req, res) => {
+    res.json(await tests.adoptHeatTransfer(db, currentUser(req), parse(adoptHeatTransferRequest, req.body)));
   });
   return r;
 }

@@ -29,7 +29,9 @@ import type {
   WorkOrderTests,
   YieldRow,
 } from '../../src/contracts/test-records';
-import { CoilSpecError } from '../coil';
+import { ADOPT_TOLERANCE_PERCENT, type AdoptHeatTransferRequest, type HeatTransferDefault } from '../../src/contracts/settings';
+import { CoilSpecError, DEFAULT_HEAT_TRANSFER_COEFFICIENT } from '../coil';
+import { getHeatTransferDefault, getShopSettings, setShopSetting } from '../settings/service';
 import type { Db, Tx } from '../db/client';
 import { buildSheets, nonconformances, notifications, orderLines, orders, stations, testRecords, workOrders } from '../db/schema';
 import { localDate } from '../floor/estimate';
@@ -303,6 +305,18 @@ export async function unitTestStates(db: Db | Tx, workOrderIds: number[]): Promi
   return out;
 }
 
+/** Each unit's state, the good quantity and the gate of work orders (shipping asks which serials may leave). */
+export async function unitStandings(db: Db | Tx, workOrderIds: number[]) {
+  const out = new Map<number, ReturnType<typeof standing>>();
+  if (!workOrderIds.length) return out;
+  // One after another: `db` may be a transaction, whose single connection takes one query at a time.
+  const wos = await db.select({ id: workOrders.id, quantity: workOrders.quantity }).from(workOrders).where(inArray(workOrders.id, workOrderIds));
+  const recs = await db.select({ id: testRecords.id, serial: testRecords.serial, passed: testRecords.passed, workOrderId: testRecords.workOrderId }).from(testRecords).where(inArray(testRecords.workOrderId, workOrderIds));
+  const ncs = await repo.nonconformancesOf(db, workOrderIds);
+  for (const w of wos) out.set(w.id, standing(w.quantity, recs.filter((r) => r.workOrderId === w.id), ncs.filter((x) => x.nc.workOrderId === w.id)));
+  return out;
+}
+
 export async function workOrderTests(db: Db, workOrderId: number): Promise<WorkOrderTests> {
   const wo = await repo.findWorkOrder(db, workOrderId);
   if (!wo) throw notFound('No such work order');
@@ -452,7 +466,13 @@ export async function designFeedback(db: Db): Promise<DesignFeedback> {
   for (const list of by.values()) {
     const s = list[0].sheet;
     const first = list.filter((x) => x.r.retestOfId === null);
-    const r20 = meanSpread(first.map((x) => x.r.resistance20));
+    // R20 of each unit as it stands (its latest record), leaving out units whose resistance
+    // reading failed: an open circuit or a shorted turn is a defect of that unit, not a measure
+    // of how well the design's computed resistance predicts the built coils.
+    const latest = new Map<string, (typeof list)[number]>();
+    for (const x of list) latest.set(`${x.r.workOrderId}/${x.r.serial}`, x);
+    const conforming = [...latest.values()].filter((x) => x.r.readings.find((g) => g.name === 'resistance')?.passed !== false);
+    const r20 = meanSpread(conforming.map((x) => x.r.resistance20));
     const turns = meanSpread(list.map((x) => x.r.entered.turns).filter((t): t is number => typeof t === 'number'));
     const heat = list.map((x) => x.r.readings.find((g) => g.name === 'heat_run')?.derived).filter((d): d is Record<string, number> => !!d);
     const hs = heat.map((d) => d.heatTransferEffective).filter((h): h is number => typeof h === 'number' && Number.isFinite(h));
@@ -476,5 +496,42 @@ export async function designFeedback(db: Db): Promise<DesignFeedback> {
       heatTransferEffective: meanSpread(hs),
     });
   }
-  return { designs, shop: { heatRuns: allH.length, heatTransferEffective: meanSpread(allH) }, relation: HEAT_TRANSFER_RELATION };
+  return { designs, shop: { heatRuns: allH.length, heatTransferEffective: meanSpread(allH) }, relation: HEAT_TRANSFER_RELATION, shopDefault: await heatTransferDefault(db) };
+}
+
+/** The shop's heat-transfer default for new build sheets, and who adopted it when. */
+export async function heatTransferDefault(db: Db | Tx): Promise<HeatTransferDefault> {
+  const s = await getShopSettings(db);
+  const value = await getHeatTransferDefault(db);
+  const byId = Number(s.defaultHeatTransferCoefficientAdoptedBy);
+  const people = value !== null && Number.isInteger(byId) && byId > 0 ? await repo.userNames(db, [byId]) : [];
+  return {
+    value,
+    engineDefault: DEFAULT_HEAT_TRANSFER_COEFFICIENT,
+    adoptedBy: people[0] ?? null,
+    adoptedAt: value !== null && s.defaultHeatTransferCoefficientAdoptedAt ? s.defaultHeatTransferCoefficientAdoptedAt : null,
+  };
+}
+
+/**
+ * The engineer adopts the shop's effective heat-transfer coefficient (from heat runs) as the
+ * default for new build sheets. Only a value the heat runs support: there must be at least one,
+ * and the value within ADOPT_TOLERANCE_PERCENT of their mean (the screen sends the mean, rounded).
+ * Sheets drafted before keep the coefficient they were computed with (each stores its spec).
+ */
+export async function adoptHeatTransfer(db: Db, actor: SessionUser, input: AdoptHeatTransferRequest): Promise<HeatTransferDefault> {
+  const shop = (await designFeedback(db)).shop.heatTransferEffective;
+  if (!shop) throw ruleBroken('No heat run gives an effective heat-transfer coefficient yet; record heat runs first', { value: 'No heat runs to support it' });
+  const off = (Math.abs(input.value - shop.mean) / shop.mean) * 100;
+  if (off > ADOPT_TOLERANCE_PERCENT) {
+    throw ruleBroken(`${input.value} W/(m²·K) is ${off.toFixed(0)} % from the shop's measured ${shop.mean.toPrecision(3)} W/(m²·K); adopt the measured value`, {
+      value: `Within ${ADOPT_TOLERANCE_PERCENT} % of ${shop.mean.toPrecision(3)} W/(m²·K)`,
+    });
+  }
+  await db.transaction(async (tx) => {
+    await setShopSetting(tx, 'defaultHeatTransferCoefficient', String(input.value));
+    await setShopSetting(tx, 'defaultHeatTransferCoefficientAdoptedBy', String(actor.id));
+    await setShopSetting(tx, 'defaultHeatTransferCoefficientAdoptedAt', new Date().toISOString());
+  });
+  return heatTransferDefault(db);
 }

@@ -14,6 +14,7 @@
  *   POST  /api/nonconformances/:id/approve       engineer           body { note? } → Nonconformance
  *   GET   /api/quality/summary                   foreman, engineer, admin, office → QualitySummary
  *   GET   /api/quality/design-feedback           engineer, admin    → DesignFeedback
+ *   POST  /api/quality/design-feedback/adopt     engineer, admin    body AdoptHeatTransferRequest (settings.ts) → HeatTransferDefault
  *
  * The server decides pass or fail, reading by reading; the client never decides. Every record
  * keeps the readings as entered, the derived values and the limits used, so it stands when the
@@ -26,6 +27,7 @@
  * and a proof test with a safety factor).
  */
 import { z } from 'zod';
+import type { HeatTransferDefault } from './settings';
 
 const ID_MAX = 2_147_483_647;
 const id = (what: string) => z.number({ error: `${what}: an id` }).int(`${what}: an id`).positive(`${what}: an id`).max(ID_MAX, `${what}: an id`);
@@ -251,6 +253,7 @@ export type DesignFeedbackRow = {
   lineTitle: string;
   orderNumber: string;
   computedResistance20: number;
+  /** Mean R₂₀ of the units as they stand (each serial's latest record), leaving out units whose resistance failed (defects, not the design). */
   meanMeasuredResistance20: number | null;
   meanDeviationPercent: number | null;
   units: number;
@@ -267,4 +270,6 @@ export type DesignFeedback = {
   designs: DesignFeedbackRow[];
   shop: { heatRuns: number; heatTransferEffective: { mean: number; spread: number | null } | null };
   relation: string;
+  /** The shop's default for new build sheets now (settings), and who adopted it. */
+  shopDefault: HeatTransferDefault;
 };

@@ -85,4 +85,17 @@ describe('design feedback', () => {
     expect(fb.body.relation).toMatch(/h_eff = h_used × ΔT_predicted \/ ΔT_measured/);
     expect((await foreman.get('/api/quality/design-feedback')).status).toBe(403);
   });
+
+  it('takes each unit’s R20 as it stands and leaves a unit with a failed resistance (a defect) out of the mean', async () => {
+    const before = (await engineer.get('/api/quality/design-feedback')).body.designs.find((d: { buildSheetId: number }) => d.buildSheetId === w.buildSheetId);
+    // Every unit so far stands at the nominal R20 (the summary's failed unit passed its retest).
+    expect(before.meanMeasuredResistance20).toBeCloseTo(w.nominal, 9);
+    // An open circuit reads a thousand times the nominal; it fails and opens a nonconformance.
+    const open = await recordTest(foreman, w.id, { serial: `${w.number}-OPEN`, resistance: w.nominal * 1000, temperature: 20 });
+    expect(open.body.passed).toBe(false);
+    const after = (await engineer.get('/api/quality/design-feedback')).body.designs.find((d: { buildSheetId: number }) => d.buildSheetId === w.buildSheetId);
+    expect(after.meanMeasuredResistance20).toBeCloseTo(w.nominal, 9);
+    expect(after.meanDeviationPercent).toBeCloseTo(0, 6);
+    expect(after.units).toBe(before.units + 1);
+  });
 });

@@ -77,9 +77,14 @@ export function WorkOrderPage() {
           </>
         }
         actions={
-          <a className={buttonClass('secondary', 'lg')} href={`/api/work-orders/${wo.id}/traveler.pdf`} target="_blank" rel="noreferrer">
-            Traveler PDF
-          </a>
+          <>
+            <Link className={buttonClass('secondary', 'lg')} to={`/work-orders/${wo.id}/tests`} data-testid="work-order-tests-link">
+              Tests
+            </Link>
+            <a className={buttonClass('secondary', 'lg')} href={`/api/work-orders/${wo.id}/traveler.pdf`} target="_blank" rel="noreferrer">
+              Traveler PDF
+            </a>
+          </>
         }
       />
 

@@ -1,0 +1,2 @@
+/** Route module for /test-bench (lazy-loaded): the floor's test bench. */
+export { TestBenchPage as Component } from './TestBenchPage';
