@@ -9,6 +9,8 @@ import type { Role } from '../src/contracts/roles';
 export const QUEUES = {
   mail: { name: 'mail', readers: ['admin'] as Role[] },
   travelers: { name: 'travelers', readers: ['engineer', 'foreman', 'office', 'admin'] as Role[] },
+  /** Shipment documents (packing list, certificate of conformance). */
+  documents: { name: 'documents', readers: ['shipping', 'foreman', 'office', 'admin'] as Role[] },
 } as const;
 export type QueueKey = keyof typeof QUEUES;
 
@@ -36,7 +38,7 @@ export const mailJobId = (notificationId: number) => `notification-${notificatio
 
 export function createQueues(connection: Redis) {
   const make = (key: QueueKey) => new Queue(QUEUES[key].name, { connection, defaultJobOptions: DEFAULT_JOB_OPTIONS });
-  const queues = { mail: make('mail'), travelers: make('travelers') } satisfies Record<QueueKey, Queue>;
+  const queues = { mail: make('mail'), travelers: make('travelers'), documents: make('documents') } satisfies Record<QueueKey, Queue>;
   return {
     ...queues,
     get: (key: QueueKey) => queues[key],

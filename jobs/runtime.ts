@@ -2,11 +2,13 @@ import { Worker } from 'bullmq';
 import type { Deps } from '../server/deps';
 import { workerConnection } from './connection';
 import { dispatchDue } from './dispatcher';
+import { documentsProcessor } from './processors/documents';
 import { mailProcessor } from './processors/mail';
 import { travelerProcessor } from './processors/traveler';
 import { createQueues, QUEUES } from './queues';
 
-export type WorkerOptions = { dispatchIntervalMs?: number; log?: (msg: string) => void };
+/** `dispatch: false` runs the workers without the outbox dispatcher (a test that queues its own row). */
+export type WorkerOptions = { dispatchIntervalMs?: number; dispatch?: boolean; log?: (msg: string) => void };
 
 /**
  * Starts the workers of every queue and the outbox dispatcher in this process. Any number of
@@ -22,6 +24,7 @@ export function startWorkers(deps: Deps, opts: WorkerOptions = {}) {
     new Worker(QUEUES.mail.name, mailProcessor(deps), { ...common, concurrency: 4 }),
     // PDF drawing is CPU work: one at a time per process; run more workers to print faster.
     new Worker(QUEUES.travelers.name, travelerProcessor(deps), { ...common, concurrency: 1 }),
+    new Worker(QUEUES.documents.name, documentsProcessor(deps), { ...common, concurrency: 1 }),
   ];
   for (const w of workers) {
     w.on('failed', (job, err) => log(`${w.name} job ${job?.id} failed (attempt ${job?.attemptsMade}): ${err.message}`));
@@ -40,7 +43,7 @@ export function startWorkers(deps: Deps, opts: WorkerOptions = {}) {
     }
     if (!stopped) timer = setTimeout(round, interval);
   };
-  void round();
+  if (opts.dispatch !== false) void round();
 
   return {
     queues,

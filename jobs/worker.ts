@@ -5,7 +5,7 @@ import { startWorkers } from './runtime';
 
 const deps = createDeps(config());
 const running = startWorkers(deps, { log: (m) => console.log(`worker: ${m}`) });
-console.log('Spoolwright worker started (queues: mail, travelers; outbox dispatcher on)');
+console.log('Spoolwright worker started (queues: mail, travelers, documents; outbox dispatcher on)');
 
 async function shutdown() {
   await running.close();

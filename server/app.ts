@@ -24,6 +24,7 @@ import { workOrdersRouter } from './work-orders/router';
 import { stockRouter } from './stock/router';
 import { floorRouter } from './floor/router';
 import { testRecordsRouter } from './test-records/router';
+import { portalRouter, shipmentsRouter } from './shipments/router';
 
 /** The built client; CLIENT_DIR (relative to the project) lets parallel work trees' browser tests use their own build. */
 const clientDir = path.resolve(import.meta.dirname, '..', process.env.CLIENT_DIR ?? path.join('dist', 'client'));
@@ -46,6 +47,8 @@ export function apiRouters(deps: Deps): Router[] {
     settingsRouter(deps.db),
     floorRouter(deps),
     testRecordsRouter(deps.db),
+    shipmentsRouter(deps),
+    portalRouter(deps),
   ];
 }
 

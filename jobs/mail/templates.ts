@@ -8,6 +8,8 @@ export type MailAttachment = { filename: string; content: Buffer; contentType: s
 export type RenderedMail = { subject: string; text: string; html: string; attachments?: MailAttachment[] };
 type Payload = Record<string, unknown>;
 type Line = { lineNo: number; quantity: number; title: string; customerPartNumber?: string | null };
+type ShipmentLine = Line & { shippedNow: number; serialCount: number; shippedTotal: number; remaining: number };
+type ShipmentOrder = { orderId: number; orderNumber: string; purchaseOrder: string; dueDate: string; lines: ShipmentLine[] };
 
 const esc = (s: unknown) =>
   String(s ?? '').replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -118,6 +120,62 @@ ${button(link, 'Follow the order')}`,
 ${linesHtml(lines)}
 <p><strong>What happens next:</strong> each coil is wound, terminated, impregnated and tested against its build sheet. We will write again when it ships, with the tracking number. Other lines of the order follow as their build sheets are released.</p>
 ${button(link, 'Follow the order')}`,
+    );
+    return { subject, text, html };
+  },
+
+  /** The customer's shipment notice; the processor attaches the certificate of conformance. */
+  shipment_sent(p, ctx) {
+    const orders = (p.orders as ShipmentOrder[]) ?? [];
+    const base = ctx.publicUrl.replace(/\/$/, '');
+    const link = (o: ShipmentOrder) => `${base}/portal/orders/${o.orderId}`;
+    const pos = orders.map((o) => o.purchaseOrder).join(', ');
+    const subject = `Shipped: ${p.shipmentNumber} for your PO ${pos}${p.trackingNumber ? ` — tracking ${p.trackingNumber}` : ''}`;
+    const how = [p.carrier, p.service].filter(Boolean).join(', ');
+    const tracking = p.trackingNumber ? String(p.trackingNumber) : 'none (delivered without tracking)';
+    const open = (l: ShipmentLine) => (l.remaining > 0 ? `${l.remaining} still open` : 'complete');
+    const text = [
+      `Your coils are on their way.`,
+      ``,
+      `Shipment:        ${p.shipmentNumber}`,
+      `Shipped on:      ${fmtDate(p.shipDate)}`,
+      `Carrier:         ${how}`,
+      `Tracking number: ${tracking}`,
+      `Packages:        ${p.packages}`,
+      ``,
+      ...orders.flatMap((o) => [
+        ...orderFactsText(o as unknown as Payload),
+        `Shipped now, and what remains open:`,
+        ...o.lines
+          .filter((l) => l.shippedNow > 0 || l.remaining > 0)
+          .map((l) => `  ${l.lineNo}. ${l.title}${l.customerPartNumber ? ` (your part ${l.customerPartNumber})` : ''}: ${l.shippedNow} shipped now (${l.serialCount} serial${l.serialCount === 1 ? '' : 's'}); ${l.shippedTotal} of ${l.quantity} shipped so far, ${open(l)}`),
+        ...(orders.length > 1 ? [`Follow this order: ${link(o)}`] : []),
+        ``,
+      ]),
+      `The certificate of conformance is attached: each unit's serial with its test results.`,
+      ``,
+      ...signOffText(ctx, orders[0] ? link(orders[0]) : `${base}/portal/orders`),
+    ].join('\n');
+    const rows = (o: ShipmentOrder) =>
+      o.lines
+        .filter((l) => l.shippedNow > 0 || l.remaining > 0)
+        .map(
+          (l) =>
+            `<tr><td style="padding:4px 8px;color:#5b6169">${l.lineNo}</td><td style="padding:4px 8px">${esc(l.title)}${l.customerPartNumber ? ` <span style="color:#5b6169">(your part ${esc(l.customerPartNumber)})</span>` : ''}</td><td style="padding:4px 8px;text-align:right">${l.shippedNow}</td><td style="padding:4px 8px;text-align:right">${l.shippedTotal} / ${l.quantity}</td><td style="padding:4px 8px">${esc(open(l))}</td></tr>`,
+        )
+        .join('');
+    const html = frame(
+      ctx,
+      'Your coils have shipped',
+      `<p>Shipment <strong>${esc(p.shipmentNumber)}</strong> left us on <strong>${esc(fmtDate(p.shipDate))}</strong> with <strong>${esc(how)}</strong>, ${esc(p.packages)} package(s). Tracking number: <strong>${esc(tracking)}</strong>.</p>
+${orders
+  .map(
+    (o) => `<h2 style="font-size:16px;margin:16px 0 4px">Your PO ${esc(o.purchaseOrder)} <span style="color:#5b6169;font-weight:400">(our order ${esc(o.orderNumber)})</span></h2>
+<table style="border-collapse:collapse;font-size:14px;margin:4px 0 8px"><tr style="color:#5b6169;font-size:12px"><td style="padding:4px 8px">Line</td><td style="padding:4px 8px">Item</td><td style="padding:4px 8px">Shipped now</td><td style="padding:4px 8px">Shipped so far</td><td style="padding:4px 8px">Open</td></tr>${rows(o)}</table>
+${button(link(o), 'Follow this order')}`,
+  )
+  .join('')}
+<p>The certificate of conformance is attached: each unit's serial with its test results.</p>`,
     );
     return { subject, text, html };
   },

@@ -2,6 +2,7 @@ import type { Job } from 'bullmq';
 import type { Deps } from '../../server/deps';
 import { recordFailure, sendNotification } from '../../server/notifications/service';
 import { getShopSettings } from '../../server/settings/service';
+import { mailAttachments } from '../mail/attachments';
 import { renderMail } from '../mail/templates';
 
 export type MailJobData = { notificationId: number };
@@ -17,6 +18,7 @@ export function mailProcessor(deps: Deps) {
       const outcome = await sendNotification(deps.db, id, async (row) => {
         const shop = await getShopSettings(deps.db);
         const mail = renderMail(row.kind, row.payload, { shopName: shop.name, publicUrl: deps.config.publicUrl });
+        const files = [...(mail.attachments ?? []), ...(await mailAttachments(deps, row))];
         const delay = testDelay();
         if (delay > 0) await new Promise((r) => setTimeout(r, delay));
         const domain = new URL(deps.config.publicUrl).hostname || 'spoolwright.local';
@@ -29,7 +31,7 @@ export function mailProcessor(deps: Deps) {
           html: mail.html,
           messageId: `<notification-${id}@${domain}>`,
           headers: { 'X-Spoolwright-Notification': String(id) },
-          attachments: mail.attachments,
+          attachments: files,
         });
         return { messageId: info.messageId };
       });

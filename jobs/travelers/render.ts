@@ -6,7 +6,6 @@
  * stage; a test table to fill in by hand; and the cautions.
  */
 import bwipjs from 'bwip-js/node';
-import PDFDocument from 'pdfkit';
 import type { UnitPreferences } from '../../src/contracts/auth';
 import {
   formatLength,
@@ -16,7 +15,7 @@ import {
   UNIT_SPACE,
 } from '../../src/lib/units';
 import type { BuildSheet, CoilSpec } from '../../server/coil/types';
-import { FONT_FILES, fontData, fontRuns, type FontName } from './fonts';
+import { ACCENT, BAND, createCanvas, MUTED, RULE } from '../pdf/canvas';
 
 export type TravelerData = {
   shopName: string;
@@ -42,16 +41,11 @@ export const CAUTIONS = [
   'These notes do not replace local codes, the shop’s safety procedures or licensed practice; where they differ, those govern.',
 ];
 
-const INK = '#1e2126';
-const MUTED = '#5b6169';
-const RULE = '#c9cdd2';
-const ACCENT = '#b8632f';
-const BAND = '#23272d';
 
 const si = (v: number, unit: string, digits: number) => `${formatNumber(v, digits)}${UNIT_SPACE}${unit}`;
 
 /** Engineering notation with an SI prefix, e.g. 0.0123 H → 12.3 mH. */
-function eng(v: number | undefined, unit: string, digits = 3): string {
+export function eng(v: number | undefined, unit: string, digits = 3): string {
   if (v === undefined || !Number.isFinite(v)) return '—';
   if (v === 0) return `0${UNIT_SPACE}${unit}`;
   const prefixes: [number, string][] = [[1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n']];
@@ -67,7 +61,7 @@ export function wireLabel(result: BuildSheet): string {
   return `${w.conductor === 'copper' ? 'Copper' : 'Aluminium'} ${size}, grade ${w.grade}`;
 }
 
-function barcodePng(text: string): Promise<Buffer> {
+export function barcodePng(text: string): Promise<Buffer> {
   return bwipjs.toBuffer({ bcid: 'code128', text, scale: 3, height: 12, includetext: false, paddingwidth: 10, paddingheight: 4 });
 }
 function qrPng(text: string): Promise<Buffer> {
@@ -77,56 +71,8 @@ function qrPng(text: string): Promise<Buffer> {
 /** Renders one traveler to PDF bytes. */
 export async function renderTraveler(d: TravelerData): Promise<Buffer> {
   const [barcode, qr] = await Promise.all([barcodePng(d.workOrder.number), qrPng(d.url)]);
-  const doc = new PDFDocument({
-    size: d.paper === 'LETTER' ? 'LETTER' : 'A4',
-    margins: { top: 36, bottom: 40, left: 40, right: 40 },
-    info: { Title: `Traveler ${d.workOrder.number}`, Author: d.shopName, Subject: `${d.order.number} line ${d.line.lineNo}`, Creator: 'Spoolwright' },
-    bufferPages: true,
-  });
-  for (const name of Object.keys(FONT_FILES) as FontName[]) doc.registerFont(name, fontData(name));
-  const chunks: Buffer[] = [];
-  doc.on('data', (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
-
-  const left = doc.page.margins.left;
-  const width = doc.page.width - left - doc.page.margins.right;
-
-  /** Text with per-character font fallback, at (x, y) or flowing from the current position. */
-  const write = (text: string, opts: { font?: FontName; size?: number; color?: string; x?: number; y?: number; width?: number; align?: 'left' | 'right' | 'center' } = {}) => {
-    const runs = fontRuns(text, opts.font ?? 'Barlow');
-    doc.fontSize(opts.size ?? 9).fillColor(opts.color ?? INK);
-    runs.forEach((run, i) => {
-      doc.font(run.font);
-      const more = i < runs.length - 1;
-      if (i === 0 && opts.x !== undefined) doc.text(run.text, opts.x, opts.y, { width: opts.width, align: opts.align, continued: more, lineBreak: opts.width !== undefined });
-      else doc.text(run.text, { continued: more, width: opts.width, align: opts.align });
-    });
-  };
-
-  /** A small warning triangle, drawn (no font has to carry it). */
-  const mark = (x: number, y: number) => {
-    doc.save().polygon([x + 4, y + 1.5], [x + 8.5, y + 9], [x - 0.5, y + 9]).fill(ACCENT).restore();
-  };
-
-  const ensureSpace = (h: number) => {
-    if (doc.y + h > doc.page.height - doc.page.margins.bottom) {
-      doc.addPage();
-      doc.y = doc.page.margins.top;
-    }
-  };
-
-  /** A section heading, kept on the same page as the first rows under it. */
-  const sectionTitle = (title: string, keepWith = 60) => {
-    ensureSpace(20 + keepWith);
-    doc.moveDown(0.6);
-    const y = doc.y;
-    doc.rect(left, y, 3, 12).fill(ACCENT);
-    write(title, { font: 'Barlow-Bold', size: 10, x: left + 8, y: y + 0.5, color: INK });
-    doc.y = y + 17;
-  };
+  const c = createCanvas({ paper: d.paper, title: `Traveler ${d.workOrder.number}`, author: d.shopName, subject: `${d.order.number} line ${d.line.lineNo}` });
+  const { doc, left, width, write, mark, ensureSpace, sectionTitle } = c;
 
   // ── Header band ──────────────────────────────────────────────────────────────────────────
   const top = doc.page.margins.top;
@@ -143,20 +89,7 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
   doc.y = top + 86;
 
   // ── The job ──────────────────────────────────────────────────────────────────────────────
-  const kv = (pairs: [string, string][], cols: number) => {
-    const colW = width / cols;
-    const startY = doc.y;
-    let maxY = startY;
-    pairs.forEach(([k, v], i) => {
-      const x = left + (i % cols) * colW;
-      const y = startY + Math.floor(i / cols) * 28;
-      write(k, { size: 7.5, color: MUTED, x, y, width: colW - 8 });
-      write(v, { font: 'Barlow-SemiBold', size: 10, x, y: y + 10, width: colW - 8 });
-      maxY = Math.max(maxY, y + 28);
-    });
-    doc.y = maxY;
-  };
-  kv(
+  c.kv(
     [
       ['Customer', d.order.customerName],
       ['Order · customer PO', `${d.order.number} · ${d.order.purchaseOrder}`],
@@ -266,32 +199,10 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
   const testRows = Math.min(d.workOrder.quantity, 12);
   grid(['Serial', 'R measured (Ω)', 'at °C', 'Hi-pot V / s / leakage', 'IR (MΩ)', 'Pass / fail', 'Initials'], [70, 80, 50, 120, 60, 60, width - 440], testRows, () => '');
 
-  // ── Cautions ─────────────────────────────────────────────────────────────────────────────
-  ensureSpace(110);
-  doc.moveDown(0.5);
-  const boxY = doc.y;
-  write('Cautions', { font: 'Barlow-Bold', size: 9, color: '#8a3b12', x: left + 10, y: boxY + 8 });
-  doc.y = boxY + 22;
-  for (const c of CAUTIONS) {
-    mark(left + 10, doc.y);
-    write(c, { size: 8.5, x: left + 22, y: doc.y, width: width - 32 });
-  }
-  const boxH = doc.y - boxY + 6;
-  doc.rect(left, boxY, width, boxH).lineWidth(1.2).strokeColor(ACCENT).stroke();
-
-  // ── Footer on every page ─────────────────────────────────────────────────────────────────
-  const range = doc.bufferedPageRange();
-  for (let i = range.start; i < range.start + range.count; i++) {
-    doc.switchToPage(i);
-    const y = doc.page.height - doc.page.margins.bottom + 14;
-    const oldBottom = doc.page.margins.bottom;
-    doc.page.margins.bottom = 0;
-    write(
-      `${d.workOrder.number} · build sheet v${d.sheet.version} · engine ${d.sheet.engineVersion} · printed ${d.generatedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC by ${d.generatedBy} · page ${i + 1} of ${range.count}`,
-      { size: 7, color: MUTED, x: left, y, width, align: 'center' },
-    );
-    doc.page.margins.bottom = oldBottom;
-  }
-  doc.end();
-  return done;
+  // ── Cautions, and the footer on every page ───────────────────────────────────────────────
+  c.cautions(CAUTIONS);
+  return c.finish(
+    (page, pages) =>
+      `${d.workOrder.number} · build sheet v${d.sheet.version} · engine ${d.sheet.engineVersion} · printed ${d.generatedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC by ${d.generatedBy} · page ${page} of ${pages}`,
+  );
 }

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import {
+  bigint,
   bigserial,
   boolean,
   char,
@@ -31,6 +32,7 @@ import { CONDUCTORS, WIRE_STANDARDS, type Conductor } from '../../src/contracts/
 import { PRIORITY_DEFAULT, WORK_ORDER_EVENT_KINDS } from '../../src/contracts/work-orders';
 import { STATION_KINDS } from '../../src/contracts/floor';
 import { DISPOSITION_ACTIONS, INSTRUMENT_KINDS, NONCONFORMANCE_STATES, type Reading, type RecordTestRequest } from '../../src/contracts/test-records';
+import { SHIPMENT_DOCUMENT_KINDS, type PackageInput } from '../../src/contracts/shipments';
 import type { BuildSheet } from '../coil/types';
 
 export const roleEnum = pgEnum('role', ROLES);
@@ -561,4 +563,80 @@ export const dispositions = pgTable(
     approvalNote: text('approval_note'),
   },
   (t) => [uniqueIndex('dispositions_nc_unique').on(t.nonconformanceId)],
+);
+
+// ── Shipping ───────────────────────────────────────────────────────────────────────────────
+
+/** Shop-wide shipment numbers: never reset, never reused (a rolled-back shipment leaves a gap). */
+export const shipmentNumberSeq = pgSequence('shipment_number_seq', { startWith: 1 });
+
+/**
+ * What left the building for one customer: where to, how (carrier, service, tracking), the
+ * packages (SI: kg, mm) and who recorded it. The only way a work order reaches `shipped`.
+ */
+export const shipments = pgTable(
+  'shipments',
+  {
+    id: serial('id').primaryKey(),
+    /** "SH-<year>-<sequence>", from shipment_number_seq. */
+    number: varchar('number', { length: 24 }).notNull(),
+    customerId: integer('customer_id')
+      .notNull()
+      .references(() => customers.id, { onDelete: 'restrict' }),
+    shipTo: jsonb('ship_to').$type<Address>().notNull(),
+    attention: varchar('attention', { length: 120 }).notNull().default(''),
+    carrier: varchar('carrier', { length: 60 }).notNull(),
+    service: varchar('service', { length: 60 }).notNull().default(''),
+    trackingNumber: varchar('tracking_number', { length: 80 }).notNull().default(''),
+    shipDate: date('ship_date', { mode: 'string' }).notNull(),
+    packages: jsonb('packages').$type<PackageInput[]>().notNull(),
+    /** Printed on the packing list; the customer sees it. */
+    packingNote: text('packing_note').notNull().default(''),
+    /** The customer's shipment notice in the outbox. */
+    notificationId: bigint('notification_id', { mode: 'number' }).references(() => notifications.id, { onDelete: 'set null' }),
+    createdBy: integer('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex('shipments_number_unique').on(t.number),
+    index('shipments_customer_idx').on(t.customerId, t.shipDate),
+    index('shipments_ship_date_idx').on(t.shipDate),
+  ],
+);
+
+/** The units of one work order in a shipment, by serial. A work order's shipped units are the sum of its items. */
+export const shipmentItems = pgTable(
+  'shipment_items',
+  {
+    id: serial('id').primaryKey(),
+    shipmentId: integer('shipment_id')
+      .notNull()
+      .references(() => shipments.id, { onDelete: 'restrict' }),
+    workOrderId: integer('work_order_id')
+      .notNull()
+      .references(() => workOrders.id, { onDelete: 'restrict' }),
+    quantity: integer('quantity').notNull(),
+    serials: text('serials').array().notNull(),
+  },
+  (t) => [uniqueIndex('shipment_items_shipment_wo_unique').on(t.shipmentId, t.workOrderId), index('shipment_items_wo_idx').on(t.workOrderId)],
+);
+
+export const shipmentDocumentKindEnum = pgEnum('shipment_document_kind', SHIPMENT_DOCUMENT_KINDS);
+
+/** A shipment's drawn documents (packing list, certificate) in the object store: one row per kind. */
+export const shipmentDocuments = pgTable(
+  'shipment_documents',
+  {
+    id: serial('id').primaryKey(),
+    shipmentId: integer('shipment_id')
+      .notNull()
+      .references(() => shipments.id, { onDelete: 'cascade' }),
+    kind: shipmentDocumentKindEnum('kind').notNull(),
+    storageKey: varchar('storage_key', { length: 300 }).notNull(),
+    sha256: varchar('sha256', { length: 64 }).notNull(),
+    size: integer('size').notNull(),
+    pages: integer('pages').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('shipment_documents_shipment_kind_unique').on(t.shipmentId, t.kind)],
 );

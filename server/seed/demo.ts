@@ -9,6 +9,7 @@ import { demoBuildSheetsStep } from './build-sheets';
 import { demoFloorStep } from './floor';
 import { demoShippedHistoryStep } from './history';
 import { demoTestRecordsStep } from './test-records';
+import { demoCustomerUsersStep, demoShipmentsStep } from './shipments';
 
 /** The demo sign-ins: `<role>@spoolwright.test`, one per role, all with this password. */
 export const DEMO_PASSWORD = 'spoolwright-demo';
@@ -73,10 +74,14 @@ export const SEED_STEPS: Step[] = [
   demoBuildSheetsStep,
   // Stations, five floor staff, work orders assigned and moved along the stages (server/seed/floor.ts).
   demoFloorStep,
-  // Work orders of orders that shipped before shipments were recorded here (server/seed/history.ts).
+  // Work orders of closed orders that shipped before shipments were recorded here (server/seed/history.ts).
   demoShippedHistoryStep,
   // Instruments, and unit tests of the work orders in testing, inspection and rework (server/seed/test-records.ts).
   demoTestRecordsStep,
+  // Past shipments of the shipped and partly shipped orders, through the shipments service, and
+  // customer users for a few more companies (server/seed/shipments.ts).
+  demoShipmentsStep,
+  demoCustomerUsersStep,
 ];
 
 /** Runs the steps not yet recorded, each in its own transaction with its record. */

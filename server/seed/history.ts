@@ -1,8 +1,9 @@
 /**
- * Demo seed: history from before the shop recorded shipments in Spoolwright. The demo's shipped
- * and closed orders (and all but the last line of each partly shipped one) left the shop, so
- * their work orders are marked shipped, each with one event saying so. Only this seed writes
- * `shipped` directly: in the product a shipment is the one way there.
+ * Demo seed: history from before the shop recorded shipments in Spoolwright. The demo's closed
+ * orders (45–90 days old) left the shop then, so their work orders are marked shipped, each with
+ * one event saying so. Only this seed writes `shipped` directly: in the product a shipment is the
+ * one way there, and the newer shipped and partly shipped orders get real shipments
+ * (server/seed/shipments.ts).
  */
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Db } from '../db/client';
@@ -16,10 +17,8 @@ export const demoShippedHistoryStep = {
       .from(workOrders)
       .innerJoin(orders, eq(orders.id, workOrders.orderId))
       .innerJoin(orderLines, eq(orderLines.id, workOrders.lineId))
-      .where(and(inArray(orders.status, ['shipped', 'closed', 'partly_shipped']), eq(workOrders.stage, 'ready')));
-    const lastLine = new Map<number, number>();
-    for (const w of done) lastLine.set(w.orderId, Math.max(lastLine.get(w.orderId) ?? 0, w.lineNo));
-    const shipped = done.filter((w) => w.status !== 'partly_shipped' || w.lineNo < lastLine.get(w.orderId)!);
+      .where(and(inArray(orders.status, ['closed']), eq(workOrders.stage, 'ready')));
+    const shipped = done;
     if (!shipped.length) return;
     const ids = shipped.map((w) => w.id);
     await db

@@ -35,7 +35,7 @@ export function rng(seed: number) {
 const gauss = (r: () => number) => (r() + r() + r() - 1.5) * 2;
 
 /** Invented instruments; the LCR meter's calibration comes due in 4 days, none is overdue. */
-async function ensureInstruments(tx: Tx) {
+export async function ensureInstruments(tx: Tx) {
   const existing = await tx.select().from(instruments).orderBy(asc(instruments.id));
   if (existing.length) return existing.map((i) => i.id);
   const today = localDate();
@@ -59,7 +59,7 @@ async function foremanOf(tx: Tx) {
 type Sheet = typeof buildSheets.$inferSelect;
 
 /** A unit's readings around nominal; `off` pushes the resistance that far (fraction) from nominal. */
-function readings(r: () => number, sheet: Sheet, tolerancePercent: number, serial: string, instrumentIds: number[], opts: { off?: number; heatRun?: boolean } = {}): RecordTestRequest {
+export function readings(r: () => number, sheet: Sheet, tolerancePercent: number, serial: string, instrumentIds: number[], opts: { off?: number; heatRun?: boolean } = {}): RecordTestRequest {
   const res = sheet.result;
   const temperature = Math.round((21 + gauss(r) * 2) * 10) / 10;
   // Spread: about a sixth of the line's tolerance (sd), so a passing unit stays well inside it.

@@ -26,6 +26,7 @@
  */
 import { z } from 'zod';
 import { addressSchema, type Address } from './customers';
+import type { Stage } from './stages';
 
 const ID_MAX = 2_147_483_647;
 const id = (what: string) => z.int({ error: `${what}: an id` }).positive(`${what}: an id`).max(ID_MAX, `${what}: an id`);
@@ -123,6 +124,14 @@ export const listShipmentsQuery = z.object({
 });
 export type ListShipmentsQuery = z.infer<typeof listShipmentsQuery>;
 
+/**
+ * A refused POST /api/shipments (422) says which work orders and why: `error.fields.workOrderIds`
+ * in words ("WO-26-00012: It is in testing, not packing; …"), and `error.workOrders` one entry
+ * per refused work order (also for another customer's work order, an unknown id, a serial that
+ * shipped already or is not a passed unit). A ship date too far ahead names `fields.shipDate`.
+ */
+export type ShipmentRefusal = { workOrderId: number; number: string; reasons: string[] };
+
 /** One work order waiting in packing, and whether it may ship now (the server decides). */
 export type ReadyWorkOrder = {
   id: number;
@@ -212,6 +221,27 @@ export const PORTAL_PROGRESS_LABELS: Record<PortalProgress, string> = {
   in_production: 'In production',
   tested: 'Tested, awaiting shipment',
   shipped: 'Shipped',
+};
+
+/**
+ * The simple stage words a customer sees for units in production: ready and winding → winding;
+ * terminating, impregnating, curing → finishing; testing and inspection → testing. Holds and
+ * rework are not named (those units count as in production without a word); packing counts as
+ * tested, engineering as awaiting engineering.
+ */
+export const PORTAL_STAGE_WORDS: Record<Stage, string | null> = {
+  engineering: null,
+  ready: 'winding',
+  winding: 'winding',
+  terminating: 'finishing',
+  impregnating: 'finishing',
+  curing: 'finishing',
+  testing: 'testing',
+  inspection: 'testing',
+  packing: null,
+  shipped: null,
+  on_hold: null,
+  rework: null,
 };
 
 export type PortalLine = {

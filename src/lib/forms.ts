@@ -33,6 +33,8 @@ export function throughContract<In, S extends ZodType>(
   toRequest: (values: In) => unknown,
   contract: S,
   rewrite?: (issue: { path: PropertyKey[]; message: string; code: string; input?: unknown }) => string | undefined,
+  /** For a form not shaped like its request: a request path → the form's path. */
+  mapPath?: (path: PropertyKey[], values: In) => PropertyKey[],
 ) {
   return z
     .custom<In>((v) => typeof v === 'object' && v !== null, 'The form is empty')
@@ -40,7 +42,7 @@ export function throughContract<In, S extends ZodType>(
       const r = contract.safeParse(toRequest(values));
       if (r.success) return r.data;
       for (const issue of r.error.issues) {
-        ctx.addIssue({ code: 'custom', path: issue.path, message: rewrite?.(issue) ?? issue.message });
+        ctx.addIssue({ code: 'custom', path: mapPath ? mapPath(issue.path, values) : issue.path, message: rewrite?.(issue) ?? issue.message });
       }
       return z.NEVER;
     });
@@ -52,4 +54,11 @@ export function formPaths(values: unknown, prefix = ''): string[] {
   const out: string[] = prefix ? [prefix] : [];
   for (const [k, v] of Object.entries(values as Record<string, unknown>)) out.push(...formPaths(v, prefix ? `${prefix}.${k}` : k));
   return out;
+}
+
+/** Text as typed → a number; empty → undefined; a comma counts as the decimal mark; junk → NaN. */
+export function parseNumber(s: string | undefined): number | undefined {
+  const t = (s ?? '').trim().replace(/\s/g, '').replace(',', '.');
+  if (t === '') return undefined;
+  return /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t) ? Number(t) : NaN;
 }

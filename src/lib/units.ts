@@ -74,6 +74,25 @@ export function toKelvinDifference(value: number, unit: TemperatureUnit): number
 
 export const temperatureDifferenceSymbol = (unit: TemperatureUnit) => (unit === 'C' ? 'K' : '°F');
 
+// ── masses (a shipment's packages) ──────────────────────────────────────────
+// There is no separate mass preference: metric (mm) users weigh in kilograms, inch users in pounds.
+// 1 lb = 0.453 592 37 kg exactly (international avoirdupois pound, NIST SP 811 appendix B).
+
+export type MassUnit = 'kg' | 'lb';
+export const KG_PER_POUND = 0.45359237;
+
+export const massUnitFor = (length: LengthUnit): MassUnit => (length === 'mm' ? 'kg' : 'lb');
+
+/** Kilograms → kg or lb. */
+export function fromKilograms(kg: number, unit: MassUnit): number {
+  return unit === 'kg' ? kg : kg / KG_PER_POUND;
+}
+
+/** kg or lb → kilograms. */
+export function toKilograms(value: number, unit: MassUnit): number {
+  return unit === 'kg' ? value : value * KG_PER_POUND;
+}
+
 // ── formatting ──────────────────────────────────────────────────────────────
 
 export const MISSING = '—';
@@ -117,6 +136,11 @@ export function formatTemperatureDifference(kelvin: number | null | undefined, u
   return `${formatNumber(fromKelvinDifference(kelvin, unit), digits)}${UNIT_SPACE}${temperatureDifferenceSymbol(unit)}`;
 }
 
+export function formatMass(kg: number | null | undefined, unit: MassUnit, digits = 2): string {
+  if (!isNumber(kg)) return MISSING;
+  return `${formatNumber(fromKilograms(kg, unit), digits)}${UNIT_SPACE}${unit}`;
+}
+
 /** Formatters bound to one user's preferences. */
 export function unitFormatters(prefs: UnitPreferences) {
   return {
@@ -126,6 +150,8 @@ export function unitFormatters(prefs: UnitPreferences) {
     temperatureDifference: (kelvin: number | null | undefined, digits?: number) =>
       formatTemperatureDifference(kelvin, prefs.temperatureUnit, digits),
     area: (m2: number | null | undefined, digits?: number) => formatArea(m2, prefs.lengthUnit, digits),
+    mass: (kg: number | null | undefined, digits?: number) => formatMass(kg, massUnitFor(prefs.lengthUnit), digits),
+    massSymbol: massUnitFor(prefs.lengthUnit),
     lengthSymbol: lengthSymbol(prefs.lengthUnit),
     areaSymbol: areaSymbol(prefs.lengthUnit),
     temperatureSymbol: temperatureSymbol(prefs.temperatureUnit),

@@ -8,7 +8,7 @@ export type CaughtMail = {
   html: string;
   to: { address: string; name: string }[];
   headers: Record<string, string>;
-  attachments?: { fileName: string; contentType: string; length: number }[];
+  attachments?: { fileName: string; generatedFileName: string; contentType: string; length: number }[];
 };
 
 const viewer = `http://${LOCAL.mailViewer.host}:${LOCAL.mailViewer.port}`;

@@ -1,10 +1,12 @@
 import type { SessionUser } from '../../contracts/auth';
 import { Panel } from '../../components/Panel';
+import { PortalOrdersList } from '../portal';
 import { AccountPanel, DutiesPanel, HomeFrame } from './parts';
 
 export function CustomerHome({ user }: { user: SessionUser }) {
   return (
     <HomeFrame user={user}>
+      <PortalOrdersList />
       <div className="grid gap-5 lg:grid-cols-2">
         <DutiesPanel user={user} title="What this account is for" />
         <Panel title="Questions about an order">

@@ -2,6 +2,7 @@
 import type { SessionUser } from '../../contracts/auth';
 import { FloorHomePanel } from '../floor';
 import { OrdersHomePanel } from '../orders';
+import { ShippingHomePanel } from '../shipping';
 import { AccountPanel, DutiesPanel, HomeFrame, SAFETY, SafetyPanel } from './parts';
 
 export function OfficeHome({ user }: { user: SessionUser }) {
@@ -45,6 +46,7 @@ export function FloorHome({ user }: { user: SessionUser }) {
 export function ShippingHome({ user }: { user: SessionUser }) {
   return (
     <HomeFrame user={user}>
+      <ShippingHomePanel />
       <div className="grid gap-5 lg:grid-cols-2">
         <DutiesPanel user={user} />
         <AccountPanel user={user} large />

@@ -13,7 +13,7 @@ import {
   type OrderDetail,
   type Requirement,
 } from '../../contracts/orders';
-import { throughContract } from '../../lib/forms';
+import { parseNumber, throughContract } from '../../lib/forms';
 import { todayIso, addDaysIso } from '../../lib/format';
 import {
   formatNumber,
@@ -85,12 +85,8 @@ export function inputNumber(n: number | undefined, digits = 6): string {
   return String(Number(n.toFixed(digits)));
 }
 
-/** Text as typed → a number; empty → undefined; a comma counts as the decimal mark; junk → NaN. */
-export function parseNumber(s: string | undefined): number | undefined {
-  const t = (s ?? '').trim().replace(/\s/g, '').replace(',', '.');
-  if (t === '') return undefined;
-  return /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t) ? Number(t) : NaN;
-}
+/** Text as typed → a number (shared with other forms: src/lib/forms.ts). */
+export { parseNumber };
 
 function makeConverters(units: Units) {
   const { lengthUnit: L, temperatureUnit: T } = units;
