@@ -1,15 +1,15 @@
-import { NavLink, Outlet, useNavigation } from 'react-router';
+import { Outlet, useNavigation } from 'react-router';
 import { Brand } from '../components/Brand';
 import { UserMenu } from '../features/auth';
 import { useCurrentUser } from '../lib/session';
-import { navFor, TOUCH_ROLES } from './screens';
+import { MainNav } from './Nav';
+import { TOUCH_ROLES } from './screens';
 
 /** The signed-in frame: top bar with the role's navigation and the user menu, then the screen. */
 export function Layout() {
   const user = useCurrentUser();
   const navigation = useNavigation();
   const touch = TOUCH_ROLES.includes(user.role);
-  const items = navFor(user.role);
   return (
     <div className="flex min-h-screen flex-col" data-density={touch ? 'touch' : 'dense'} data-role={user.role}>
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">
@@ -18,22 +18,7 @@ export function Layout() {
       <header className="border-b-[3px] border-copper-500 bg-graphite-900 text-graphite-100">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
           <Brand />
-          <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
-            {items.map((s) => (
-              <NavLink
-                key={s.id}
-                to={s.path}
-                end={s.path === '/'}
-                className={({ isActive }) =>
-                  `flex items-center rounded-md px-3 ${touch ? 'h-12 text-lg' : 'h-9'} font-semibold transition-colors ${
-                    isActive ? 'bg-graphite-700 text-white shadow-[inset_0_-3px_0_#cf7d47]' : 'text-graphite-200 hover:bg-graphite-800 hover:text-white'
-                  }`
-                }
-              >
-                {s.label}
-              </NavLink>
-            ))}
-          </nav>
+          <MainNav role={user.role} touch={touch} />
           <UserMenu touch={touch} />
         </div>
         <div aria-hidden className={`h-0.5 bg-copper-400 transition-opacity ${navigation.state === 'loading' ? 'animate-pulse opacity-100' : 'opacity-0'}`} />

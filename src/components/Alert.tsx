@@ -20,3 +20,19 @@ export function Alert({ kind = 'fault', title, children }: { kind?: StatusKind; 
     </div>
   );
 }
+
+/** A form's problems that belong to no one field: the first as the title, the rest listed. */
+export function FormProblems({ messages }: { messages: string[] }) {
+  if (!messages.length) return null;
+  return (
+    <Alert kind="fault" title={messages[0]}>
+      {messages.length > 1 && (
+        <ul className="list-disc pl-4">
+          {messages.slice(1).map((m) => (
+            <li key={m}>{m}</li>
+          ))}
+        </ul>
+      )}
+    </Alert>
+  );
+}

@@ -15,7 +15,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BuildSheetRecord, EngineeringQueueItem, OrderLineDetail } from '../../src/contracts/build-sheets';
 import type { CoilSpec } from '../../src/contracts/coil';
 import { WORK_ORDER_NUMBER_PATTERN, type WorkOrderSummary } from '../../src/contracts/work-orders';
-import { launch, openPage, screenshot, signIn, textOf } from './helpers';
+import { launch, openFromNav, openPage, screenshot, signIn, textOf } from './helpers';
 
 const CSRF = { 'X-Requested-By': 'spoolwright' };
 
@@ -66,7 +66,7 @@ describe('engineer drafts, approves and releases a build sheet', () => {
       await signIn(page, 'engineer');
       // The engineer's home lists what waits, and the navigation has the queue.
       await page.getByRole('heading', { name: 'Waiting for engineering' }).waitFor();
-      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Engineering' }).click();
+      await openFromNav(page, 'Engineering');
       await page.getByRole('heading', { name: 'Engineering queue' }).waitFor();
 
       // The queue is oldest due first.
@@ -211,7 +211,7 @@ describe('engineer drafts, approves and releases a build sheet', () => {
       await screenshot(page, 'build-sheet-tablet-inches');
 
       // Wire stock shows the reservation (free = net − reserved, kg to 3 decimals).
-      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Wire stock' }).click();
+      await openFromNav(page, 'Wire stock');
       await page.getByRole('heading', { name: 'Wire stock' }).waitFor();
       await page.locator('tbody tr').first().waitFor();
       const spools = (await getJson<{ spools: { reservedMass: number; netMass: number; freeMass: number }[] }>(page, '/api/spools')).spools;

@@ -5,8 +5,12 @@
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { inject } from 'vitest';
+import { afterAll, beforeAll, inject } from 'vitest';
+import { startWorkers } from '../../jobs/runtime';
+import { loadConfig } from '../../server/config';
+import { createDeps } from '../../server/deps';
 import type { Role } from '../../src/contracts/roles';
+import { NAV_GROUP_LABELS, SCREENS } from '../../src/app/screens';
 import { DEMO_PASSWORD, demoEmail } from '../../server/seed/demo';
 
 export { DEMO_PASSWORD, demoEmail };
@@ -89,4 +93,50 @@ export async function screenshot(page: Page, name: string, opts: { fullPage?: bo
 /** The text of the first element matching a selector, trimmed. */
 export async function textOf(page: Page, selector: string): Promise<string> {
   return ((await page.locator(selector).first().textContent()) ?? '').replace(/\s+/g, ' ').trim();
+}
+
+/** Whether the main navigation offers a screen, directly or in its group's menu (which it closes again). */
+export async function navOffers(page: Page, label: string): Promise<boolean> {
+  const nav = page.getByRole('navigation', { name: 'Main' });
+  const link = nav.getByRole('link', { name: label, exact: true });
+  if ((await link.count()) > 0) return true;
+  const group = SCREENS.find((s) => s.label === label && s.inNav && s.group)?.group;
+  const button = group ? nav.getByRole('button', { name: NAV_GROUP_LABELS[group] }) : null;
+  if (!button || (await button.count()) === 0) return false;
+  await button.click();
+  const offered = (await link.count()) > 0;
+  await page.keyboard.press('Escape');
+  return offered;
+}
+
+/**
+ * Opens a screen from the main navigation by its label, as a person would: directly when the
+ * role's navigation is flat, else through the menu of the screen's group.
+ */
+export async function openFromNav(page: Page, label: string) {
+  const nav = page.getByRole('navigation', { name: 'Main' });
+  const link = nav.getByRole('link', { name: label, exact: true });
+  if ((await link.count()) === 0) {
+    const group = SCREENS.find((s) => s.label === label && s.inNav && s.group)?.group;
+    if (!group) throw new Error(`No navigation entry "${label}"`);
+    await nav.getByRole('button', { name: NAV_GROUP_LABELS[group] }).click();
+  }
+  await link.click();
+}
+
+/**
+ * The browser tests' server runs the API only: a file whose tests need background work (the
+ * queues, the outbox dispatcher) starts the workers in its own process, against the same
+ * services, for the length of the file.
+ */
+export function runWorkersDuringFile() {
+  const deps = createDeps(loadConfig({ ...process.env, NODE_ENV: 'test' }));
+  let workers: ReturnType<typeof startWorkers> | undefined;
+  beforeAll(() => {
+    workers = startWorkers(deps, { dispatchIntervalMs: 500 });
+  });
+  afterAll(async () => {
+    await workers?.close();
+    await deps.close();
+  });
 }

@@ -15,7 +15,7 @@ import PDFDocument from 'pdfkit';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { OrderDetail, OrderSummary } from '../../src/contracts/orders';
-import { launch, openPage, screenshot, signIn, textOf } from './helpers';
+import { launch, openFromNav, openPage, screenshot, signIn, textOf } from './helpers';
 
 let browser: Browser;
 let dir: string;
@@ -90,7 +90,7 @@ describe('office enters a two-line order with a drawing, in inches', () => {
       expect(taken, `a seeded order of ${customerName}`).toBeTruthy();
       const newPo = `QDW-E2E-${Date.now()}`;
 
-      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Orders' }).click();
+      await openFromNav(page, 'Orders');
       await page.getByRole('link', { name: 'New order' }).first().click();
       await page.waitForURL('**/orders/new');
       await page.getByRole('heading', { name: 'New order' }).waitFor();
@@ -268,7 +268,8 @@ describe('a customer user', () => {
       expect(own.length).toBeGreaterThan(0);
       expect(other).toBeTruthy();
 
-      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Orders' }).click();
+      // The customer's navigation leads to their own view (/portal); the order list still answers them by link.
+      await page.goto('/orders');
       await page.getByRole('heading', { name: 'Your orders' }).waitFor();
       await page.locator('tbody tr').first().waitFor();
       expect(await textOf(page, '[data-testid="row-count"]')).toBe(`${own.length} orders`);
@@ -297,7 +298,7 @@ describe('office keeps a customer’s contacts', () => {
     const { context, page, pageErrors } = await openPage(browser, { width: 1366, height: 900 });
     try {
       await signIn(page, 'office');
-      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Customers' }).click();
+      await openFromNav(page, 'Customers');
       await page.getByRole('heading', { name: 'Customers' }).waitFor();
       await page.locator('tbody tr').first().waitFor();
       await screenshot(page, 'customers-list');

@@ -5,7 +5,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROLE_LABELS, ROLES, type Role } from '../../src/contracts/roles';
-import { DEMO_PASSWORD, demoEmail, fillSignIn, launch, openPage, screenshot, signIn, signOut, textOf } from './helpers';
+import { DEMO_PASSWORD, demoEmail, fillSignIn, launch, navOffers, openFromNav, openPage, screenshot, signIn, signOut, textOf } from './helpers';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -51,9 +51,8 @@ describe('each role signs in and sees its own home', () => {
         expect(await page.getByText(ROLE_MARK[other], { exact: false }).count(), `${role} home shows ${other}'s "${ROLE_MARK[other]}"`).toBe(0);
       }
       // The user menu names the role; navigation offers Users to admins only.
-      expect(await textOf(page, 'header button[aria-expanded]')).toContain(ROLE_LABELS[role]);
-      const usersLinks = await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Users' }).count();
-      expect(usersLinks).toBe(role === 'admin' ? 1 : 0);
+      expect(await textOf(page, 'header [data-user-menu] button[aria-expanded]')).toContain(ROLE_LABELS[role]);
+      expect(await navOffers(page, 'Users')).toBe(role === 'admin');
       if (role === 'admin') {
         // Live health from /api/health: four services, each with a word and a shape.
         await page.locator('[data-check="storage"] [data-status]').filter({ hasText: /Working|Down/ }).waitFor();
@@ -162,7 +161,7 @@ describe('Users screen (admin)', () => {
   it('creates a user who then shows in the table', async () => {
     await withPage(async (page) => {
       await signIn(page, 'admin');
-      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Users' }).click();
+      await openFromNav(page, 'Users');
       await page.waitForURL((u) => u.pathname === '/users');
       await page.locator('table tbody tr').first().waitFor();
       const before = await page.locator('table tbody tr').count();

@@ -5,24 +5,17 @@
  */
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startWorkers } from '../../jobs/runtime';
-import { loadConfig } from '../../server/config';
-import { createDeps } from '../../server/deps';
-import { launch, openPage, screenshot, signIn } from './helpers';
+import { launch, openFromNav, openPage, runWorkersDuringFile, screenshot, signIn } from './helpers';
 
 let browser: Browser;
-// The browser tests' server runs the API only; the worker runs here, against the same services.
-const deps = createDeps(loadConfig({ ...process.env, NODE_ENV: 'test' }));
-let workers: ReturnType<typeof startWorkers>;
+// The queues' workers and the outbox dispatcher, in this process (the test server runs the API only).
+runWorkersDuringFile();
 
 beforeAll(async () => {
   browser = await launch();
-  workers = startWorkers(deps, { dispatchIntervalMs: 500 });
 });
 afterAll(async () => {
   await browser?.close();
-  await workers?.close();
-  await deps.close();
 });
 
 describe('travelers from the order page', () => {
@@ -69,7 +62,7 @@ describe('travelers from the order page', () => {
     const { context, page, pageErrors } = await openPage(browser);
     try {
       await signIn(page, 'admin');
-      await page.getByRole('link', { name: 'Outbox' }).click();
+      await openFromNav(page, 'Outbox');
       await page.getByRole('heading', { name: 'Outbox and background work' }).waitFor();
       // The demo shop's pending acknowledgements go out through the worker running above.
       await page.locator('[data-status="good"]', { hasText: 'Sent' }).first().waitFor({ timeout: 30_000 });
@@ -85,7 +78,7 @@ describe('travelers from the order page', () => {
     const { context, page, pageErrors } = await openPage(browser);
     try {
       await signIn(page, 'admin');
-      await page.getByRole('link', { name: 'Settings' }).click();
+      await openFromNav(page, 'Settings');
       await page.getByRole('heading', { name: 'Shop settings' }).waitFor();
       await page.getByLabel('Units per work order').fill('0');
       await page.getByRole('button', { name: 'Save settings' }).click();

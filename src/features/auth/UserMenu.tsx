@@ -39,7 +39,7 @@ export function UserMenu({ touch = false }: { touch?: boolean }) {
   }, [open]);
 
   return (
-    <div className="relative" ref={box}>
+    <div className="relative" ref={box} data-user-menu>
       <button
         type="button"
         aria-expanded={open}

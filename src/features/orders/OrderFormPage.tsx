@@ -5,7 +5,7 @@ import { FormProvider, get, useFieldArray, useForm, useFormContext, useWatch, ty
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router';
 import { AWG_GAUGE_MAX, AWG_GAUGE_MIN, METRIC_NOMINAL_DIAMETERS_MM, THERMAL_CLASS_VALUES } from '../../contracts/coil';
 import { DEFAULT_TOLERANCE_PERCENT, type OrderDetail, type Requirement } from '../../contracts/orders';
-import { Alert } from '../../components/Alert';
+import { Alert, FormProblems } from '../../components/Alert';
 import { Button } from '../../components/Button';
 import { SelectField, TextField } from '../../components/Field';
 import { Loading, PageHeader, Panel } from '../../components/Panel';
@@ -246,20 +246,6 @@ function LineEditor({ index, count, onRemove, onDuplicate }: { index: number; co
   );
 }
 
-function Problems({ messages }: { messages: string[] }) {
-  if (!messages.length) return null;
-  return (
-    <Alert kind="fault" title={messages[0]}>
-      {messages.length > 1 && (
-        <ul className="list-disc pl-4">
-          {messages.slice(1).map((m) => (
-            <li key={m}>{m}</li>
-          ))}
-        </ul>
-      )}
-    </Alert>
-  );
-}
 
 /** Counts the messages in an errors tree (for the summary above the form). */
 function countErrors(node: unknown): number {
@@ -365,7 +351,7 @@ function OrderForm({ order }: { order?: OrderDetail }) {
   return (
     <FormProvider {...form}>
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={order ? `Edit order ${order.number}` : 'New order'}>
-        <Problems messages={problems} />
+        <FormProblems messages={problems} />
         {errorCount > 0 && problems.length === 0 && (
           <Alert kind="fault" title={`${errorCount === 1 ? 'One field needs' : `${errorCount} fields need`} attention — nothing is saved until the whole order is right.`} />
         )}

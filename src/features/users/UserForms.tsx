@@ -5,7 +5,7 @@ import { useForm, type UseFormRegisterReturn } from 'react-hook-form';
 import { z } from 'zod';
 import { ROLE_LABELS, ROLES } from '../../contracts/roles';
 import { createUserRequest, PASSWORD_MIN, updateUserRequest, type UserRecord } from '../../contracts/users';
-import { Alert } from '../../components/Alert';
+import { Alert, FormProblems } from '../../components/Alert';
 import { Button } from '../../components/Button';
 import { SelectField, TextField } from '../../components/Field';
 import { errorMessage, isApiError } from '../../lib/api';
@@ -29,20 +29,6 @@ function CompanySelect({ error, registration }: { error?: string; registration: 
   );
 }
 
-function FormProblems({ messages }: { messages: string[] }) {
-  if (!messages.length) return null;
-  return (
-    <Alert kind="fault" title={messages[0]}>
-      {messages.length > 1 && (
-        <ul className="list-disc pl-4">
-          {messages.slice(1).map((m) => (
-            <li key={m}>{m}</li>
-          ))}
-        </ul>
-      )}
-    </Alert>
-  );
-}
 
 function Actions({ onCancel, busy, submit }: { onCancel: () => void; busy: boolean; submit: string }) {
   return (
