@@ -23,15 +23,29 @@ import {
   type PortalOrder,
   type PortalOrderDetail,
   type PortalProgress,
+  type PortalSchedule,
   type PortalShipment,
 } from '../../src/contracts/shipments';
 import type { Db } from '../db/client';
 import { notFound } from '../http/errors';
+import { localDate } from '../floor/estimate';
 import * as orderRepo from '../orders/repository';
+import { summaries } from '../work-orders/service';
 import * as repo from './repository';
 import { documentInfos, itemsByShipment } from './service';
 
 const scope = (viewer: SessionUser) => viewer.customerId ?? -1;
+const DONE_STATUSES = new Set(['shipped', 'closed', 'cancelled']);
+
+/**
+ * An open order is behind when its requested ship date has passed or any of its open work orders
+ * is late or at risk by the floor's estimate; else on schedule.
+ */
+function scheduleOf(status: string, dueDate: string, today: string, openFlags: { late: boolean; atRisk: boolean }[]): PortalSchedule {
+  if (DONE_STATUSES.has(status)) return 'done';
+  if (dueDate < today || openFlags.some((f) => f.late || f.atRisk)) return 'behind';
+  return 'on_schedule';
+}
 
 const PROGRESS_WORDS: Record<PortalProgress, string> = {
   shipped: 'shipped',
@@ -48,6 +62,14 @@ async function portalOrders(db: Db, viewer: SessionUser, id?: number): Promise<P
   const shipped = await repo.shippedByWorkOrder(db, wos.map((w) => w.id));
   const scrapped = await repo.scrappedByWorkOrder(db, wos.map((w) => w.id));
   const shipments = await repo.shipmentIdsOfOrders(db, ids);
+  // The floor's late / at-risk flags of the open work orders (the same estimate the board shows).
+  const flags = new Map<number, { late: boolean; atRisk: boolean }[]>();
+  if (ids.length) {
+    for (const { summary: w } of await summaries(db, viewer, { orderIds: ids, excludeStages: ['shipped'] })) {
+      flags.set(w.order.id, [...(flags.get(w.order.id) ?? []), { late: w.late, atRisk: w.atRisk }]);
+    }
+  }
+  const today = localDate();
   const toLine = (l: (typeof lines)[number]): PortalLine => {
     const progress = Object.fromEntries(PORTAL_PROGRESS.map((p) => [p, 0])) as Record<PortalProgress, number>;
     const stages = new Set<string>();
@@ -92,6 +114,7 @@ async function portalOrders(db: Db, viewer: SessionUser, id?: number): Promise<P
     statusCode: o.status,
     lines: lines.filter((l) => l.orderId === o.id).map(toLine),
     shipmentCount: shipments.get(o.id)?.length ?? 0,
+    schedule: scheduleOf(o.status, o.dueDate, today, flags.get(o.id) ?? []),
   }));
 }
 

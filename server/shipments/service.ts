@@ -130,7 +130,7 @@ export async function readyToShip(db: Db, today = localDate()): Promise<ReadyToS
 
 /** The 422 of a refused shipment: which work orders and why, in words and machine-readable. */
 function refused(message: string, problems: ShipmentRefusal[]): HttpError {
-  return new HttpError(422, 'rule', message, { workOrderIds: problems.map((p) => `${p.number}: ${p.reasons.join('; ')}`).join(' · ') }, { workOrders: problems });
+  return new HttpError(422, 'rule', message, { workOrderIds: problems.map((p) => `${p.number}: ${p.reasons.join('; ')}`).join(' · ') }, { current: { workOrders: problems } });
 }
 
 /**

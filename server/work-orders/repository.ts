@@ -47,6 +47,8 @@ export type WorkOrderFilter = {
   stages?: Stage[];
   excludeStages?: Stage[];
   orderId?: number;
+  /** Work orders of any of these orders. */
+  orderIds?: number[];
   lineId?: number;
   /** The customer-role scope. */
   customerId?: number;
@@ -105,6 +107,7 @@ export function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
         f.late?.value === true ? and(lt(workOrders.dueDate, f.late.today), ne(workOrders.stage, 'shipped')) : undefined,
         f.late?.value === false ? sql`not (${workOrders.dueDate} < ${f.late.today} and ${workOrders.stage} <> 'shipped')` : undefined,
         f.orderId !== undefined ? eq(workOrders.orderId, f.orderId) : undefined,
+        f.orderIds !== undefined ? inArray(workOrders.orderId, f.orderIds.length ? f.orderIds : [-1]) : undefined,
         f.lineId !== undefined ? eq(workOrders.lineId, f.lineId) : undefined,
         f.customerId !== undefined ? eq(orders.customerId, f.customerId) : undefined,
       ),

@@ -126,7 +126,7 @@ export type ListShipmentsQuery = z.infer<typeof listShipmentsQuery>;
 
 /**
  * A refused POST /api/shipments (422) says which work orders and why: `error.fields.workOrderIds`
- * in words ("WO-26-00012: It is in testing, not packing; …"), and `error.workOrders` one entry
+ * in words ("WO-26-00012: It is in testing, not packing; …"), and `error.current.workOrders` one entry
  * per refused work order (also for another customer's work order, an unknown id, a serial that
  * shipped already or is not a passed unit). A ship date too far ahead names `fields.shipDate`.
  */
@@ -258,6 +258,14 @@ export type PortalLine = {
   productionStages: string[];
 };
 
+/**
+ * Where an open order stands against its requested ship date, from the shop's own floor estimate
+ * (server/floor/estimate.ts: a work order is at risk when the hours left exceed the working hours
+ * before its due date): on_schedule, behind (past the date, or at risk), or done.
+ */
+export const PORTAL_SCHEDULES = ['on_schedule', 'behind', 'done'] as const;
+export type PortalSchedule = (typeof PORTAL_SCHEDULES)[number];
+
 export type PortalOrder = {
   id: number;
   number: string;
@@ -270,6 +278,7 @@ export type PortalOrder = {
   statusCode: string;
   lines: PortalLine[];
   shipmentCount: number;
+  schedule: PortalSchedule;
 };
 
 export type PortalShipment = {

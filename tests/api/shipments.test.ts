@@ -67,11 +67,11 @@ describe('shipment rules', () => {
     const res = await ship(shipmentBody([a1.id, testing.id]));
     expect(res.status, JSON.stringify(res.body)).toBe(422);
     expect(res.body.error.fields.workOrderIds).toContain(testing.number);
-    const why = res.body.error.workOrders.find((w: { workOrderId: number }) => w.workOrderId === testing.id);
+    const why = res.body.error.current.workOrders.find((w: { workOrderId: number }) => w.workOrderId === testing.id);
     expect(why.reasons.join(' ')).toMatch(/testing, not packing/);
     expect(why.reasons.join(' ')).toMatch(/25 unit\(s\) without a passed test/);
     expect(why.reasons.join(' ')).toMatch(/Inspection is not signed/);
-    expect(res.body.error.workOrders.some((w: { workOrderId: number }) => w.workOrderId === a1.id)).toBe(false);
+    expect(res.body.error.current.workOrders.some((w: { workOrderId: number }) => w.workOrderId === a1.id)).toBe(false);
     expect((await woRow(a1.id)).version).toBe(before.version);
   });
 
@@ -235,6 +235,18 @@ describe('the customer view', () => {
     expect(o.lines[0].summary).toBe('50 shipped');
     const inTesting = list.body.orders.find((x: { id: number }) => x.id === (testing as unknown as { orderId?: number }).orderId) ?? list.body.orders.find((x: { lines: { productionStages: string[] }[] }) => x.lines[0].productionStages.includes('testing'));
     expect(inTesting.lines[0]).toMatchObject({ progress: { in_production: 25 }, productionStages: ['testing'], summary: '25 in production (testing)' });
+    // The schedule word, from the floor's own estimate: a shipped order is done; an open one is on
+    // schedule with a year to go, and behind once its requested date has passed.
+    expect(o.schedule).toBe('done');
+    const scheduleAt = async (due: string) => {
+      await db().update(orders).set({ dueDate: due }).where(eq(orders.id, inTesting.id));
+      return (await buyer.get(`/api/portal/orders/${inTesting.id}`)).body.schedule;
+    };
+    const day = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
+    const due = inTesting.dueDate;
+    expect(await scheduleAt(day(365))).toBe('on_schedule');
+    expect(await scheduleAt(day(-2))).toBe('behind');
+    await scheduleAt(due);
     const detail = await buyer.get(`/api/portal/orders/${shippedOrder}`);
     expect(detail.status).toBe(200);
     expect(detail.body.shipments).toHaveLength(3);

@@ -28,8 +28,18 @@ export function OrderFacts({ order }: { order: PortalOrder }) {
         <dd className="font-semibold text-graphite-900">{formatDay(order.orderDate)}</dd>
       </div>
       <div>
-        <dt className="text-graphite-500">{FINISHED.includes(order.statusCode) || order.dueDate < todayIso() ? 'Requested ship date' : 'Expected to ship by'}</dt>
-        <dd className="font-semibold text-graphite-900">{formatDay(order.dueDate)}</dd>
+        <dt className="text-graphite-500">{order.schedule === 'on_schedule' ? 'On schedule to ship by' : 'Requested ship date'}</dt>
+        <dd className="font-semibold text-graphite-900" data-schedule={order.schedule}>
+          {formatDay(order.dueDate)}
+          {order.schedule === 'behind' && (
+            <span className="mt-0.5 flex items-center gap-1 text-sm font-semibold text-fault">
+              <svg aria-hidden viewBox="0 0 12 12" className="size-3">
+                <path d="M6 1 11 10H1z" fill="currentColor" />
+              </svg>
+              Behind schedule: ask the shop for the new date
+            </span>
+          )}
+        </dd>
       </div>
       <div>
         <dt className="text-graphite-500">Shipments</dt>

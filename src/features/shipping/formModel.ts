@@ -125,7 +125,7 @@ export const shipmentFormSchema = (lengthUnit: LengthUnit) =>
 /**
  * The server's `fields` keys → the form's paths (the same rules as the contract's issues). A
  * refused shipment's 422 names each work order and why in `fields.workOrderIds` ("WO-…: why ·
- * WO-…: why"; also machine-readable in `current.workOrders` when the server sends it there):
+ * WO-…: why"; and machine-readable in `current.workOrders`, which this prefers):
  * each reason goes beside its own work order; only what names none stays above the list.
  */
 export function serverFieldsToForm(fields: Record<string, string>, v: ShipmentFormValues, numbers: Map<number, string>, current?: unknown): Record<string, string> {
