@@ -52,11 +52,21 @@ const meets = (s: BuildSheet, t: CoilTarget) =>
   (t.gapFluxDensity === undefined || (s.gapFluxDensity ?? 0) >= t.gapFluxDensity);
 
 /**
- * The wire to build a line with: the solver's best size when one meets the target cleanly;
- * otherwise the coolest size that fits and meets the target although it runs hot (the engineer
- * approves it with an override reason), else the coolest size that fits.
+ * The wire to build a line with. When the customer states the resistance their electronics
+ * expect, the fitting size whose R20 comes closest to it, as the engineer would pick it (the
+ * sheet then shows how its other figures compare). Otherwise the solver's best size when one meets
+ * the target cleanly; else the coolest size that fits and meets the target although it runs hot
+ * (the engineer approves it with an override reason), else the coolest size that fits.
  */
-function chooseDesign(spec: CoilSpec, target: CoilTarget | null): { spec: CoilSpec; target: CoilTarget | null } {
+function chooseDesign(spec: CoilSpec, target: CoilTarget | null, resistance?: number): { spec: CoilSpec; target: CoilTarget | null } {
+  if (resistance !== undefined) {
+    const fits = sweepWireSizes(spec).filter((s) => !s.warnings.some((w) => w.code === 'does-not-fit' || w.code === 'thermal-runaway'));
+    if (fits.length) {
+      const off = (r: number) => Math.abs(Math.log(r / resistance));
+      const closest = fits.reduce((a, b) => (off(b.resistance20) < off(a.resistance20) ? b : a));
+      return { spec: { ...spec, wire: closest.wire.size }, target };
+    }
+  }
   if (target) {
     const best = solveCoil(spec, target).best;
     if (best) return { spec: { ...spec, wire: best.wire.size }, target };
@@ -131,7 +141,7 @@ export async function seedBuildSheets(db: Db) {
       const key = JSON.stringify(line.requirement);
       if (!designs.has(key)) {
         const start = requirementToSpec(line.requirement);
-        designs.set(key, chooseDesign(start.spec, start.target));
+        designs.set(key, chooseDesign(start.spec, start.target, line.requirement.resistance));
       }
       const design = designs.get(key)!;
       const sheet = await draftBuildSheet(db, line.id, { ...design, notes: '' }, engineer, opts);
