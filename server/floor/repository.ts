@@ -1,5 +1,6 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { Db, Tx } from '../db/client';
+import { spoolsOfWire, type WireKey } from '../stock/repository';
 import { buildSheets, spools, stations, users, workOrders } from '../db/schema';
 
 export type StationRow = typeof stations.$inferSelect;
@@ -70,4 +71,22 @@ export function wireOfWorkOrders(db: Db | Tx, ids: number[]) {
     .from(workOrders)
     .innerJoin(buildSheets, eq(buildSheets.id, workOrders.buildSheetId))
     .where(inArray(workOrders.id, ids.length ? ids : [-1]));
+}
+
+/** The wire a work order's build sheet winds: conductor, size and insulation grade (a stock key). */
+export async function wireKeyOfWorkOrder(db: Db | Tx, id: number): Promise<WireKey | null> {
+  const [row] = await db
+    .select({ spec: buildSheets.spec })
+    .from(workOrders)
+    .innerJoin(buildSheets, eq(buildSheets.id, workOrders.buildSheetId))
+    .where(eq(workOrders.id, id));
+  return row ? { conductor: row.spec.conductor, wire: row.spec.wire, insulationGrade: row.spec.insulationGrade } : null;
+}
+
+/** The oldest lot in stock of the wire a work order winds (a fallback when nothing was reserved for it). */
+export async function oldestLotOfWorkOrderWire(db: Db | Tx, id: number): Promise<string | null> {
+  const key = await wireKeyOfWorkOrder(db, id);
+  if (!key) return null;
+  const [first] = await spoolsOfWire(db, key);
+  return first?.spool.lot ?? null;
 }

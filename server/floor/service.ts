@@ -27,6 +27,8 @@ import { addDays, daysBetween, estimateRemaining, localDate, workingDays } from 
 import { notifyFloor } from './feed';
 import { checkMove, MOVERS } from './moves';
 import * as repo from './repository';
+import * as stockRepo from '../stock/repository';
+import { wireWords } from '../../src/contracts/stock';
 import { unitTestGate } from './unit-tests';
 
 const isUniqueViolation = (e: unknown) =>
@@ -177,8 +179,16 @@ export async function applyMove(tx: Tx, actor: SessionUser, id: number, input: M
     }
     await checkStationWire(tx, s, [id]);
   }
-  if (input.spoolLot !== undefined && !(await repo.spoolLotExists(tx, input.spoolLot))) {
-    throw new HttpError(422, 'rule', `No spool with lot ${input.spoolLot} is in stock`, { spoolLot: 'No spool with this lot in stock' }, { rule: 'winding_record' });
+  if (input.spoolLot !== undefined) {
+    if (!(await repo.spoolLotExists(tx, input.spoolLot))) {
+      throw new HttpError(422, 'rule', `No spool with lot ${input.spoolLot} is in stock`, { spoolLot: 'No spool with this lot in stock' }, { rule: 'winding_record' });
+    }
+    // Traceability: the lot must be of the wire the build sheet winds (conductor, size, grade).
+    const key = await repo.wireKeyOfWorkOrder(tx, id);
+    if (key && !(await stockRepo.spoolsOfWireWithLot(tx, key, input.spoolLot)).length) {
+      const why = `Lot ${input.spoolLot} is not ${wireWords(key)}, the wire ${wo.number} winds`;
+      throw new HttpError(422, 'rule', why, { spoolLot: why }, { rule: 'winding_record' });
+    }
   }
 
   const [moved] = await woRepo.updateWorkOrders(tx, [id], { stage: input.to });

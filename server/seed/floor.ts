@@ -14,6 +14,7 @@ import { createStationRequest, FLOOR_STAGES, type CreateStationBody } from '../.
 import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
 import { buildSheets, orders, spoolReservations, spools, stations, users, workOrders } from '../db/schema';
+import { oldestLotOfWorkOrderWire } from '../floor/repository';
 import { applyAssignment, applyMove, createStation } from '../floor/service';
 import { findUserByEmail } from '../users/repository';
 import { hashPassword, toSessionUser } from '../users/service';
@@ -97,7 +98,6 @@ export async function seedFloor(db: Db) {
         .where(inArray(spoolReservations.workOrderId, wos.length ? wos.map((w) => w.id) : [-1]))
     ).map((r) => [r.workOrderId, r.lot]),
   );
-  const [anyLot] = await db.select({ lot: spools.lot }).from(spools).limit(1);
 
   // Assign: each person works mostly at a winder of their own (two share the third), in
   // batches; a job whose wire that winder does not take goes to the first winder that does.
@@ -132,7 +132,8 @@ export async function seedFloor(db: Db) {
       for (const stage of FLOOR_STAGES.slice(1, FLOOR_STAGES.indexOf(last) + 1)) {
         const finishing = stage === 'terminating';
         // The winder's counter reads a turn or two over now and then; the spool is the one reserved.
-        const extra = finishing ? { turnsCounter: p.turns + (p.id % 3 === 0 ? 2 : 0), spoolLot: lots.get(p.id) ?? anyLot.lot, stationId: p.station.id } : {};
+        const lot = finishing ? (lots.get(p.id) ?? (await oldestLotOfWorkOrderWire(tx, p.id))) : null;
+        const extra = finishing && lot ? { turnsCounter: p.turns + (p.id % 3 === 0 ? 2 : 0), spoolLot: lot, stationId: p.station.id } : {};
         // The packing gate needs every unit's test passed or dispositioned (server/seed/test-records.ts).
         if (stage === 'packing') await testBatchForPacking(tx, p.person, p.id, packed++);
         await step(p.person, stage, extra);

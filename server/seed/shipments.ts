@@ -19,6 +19,7 @@ import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
 import { buildSheets, customers, notifications, orderEvents, orderLines, orders, shipments, spoolReservations, spools, testRecords, users, workOrderEvents, workOrders } from '../db/schema';
 import { addDays, localDate } from '../floor/estimate';
+import { oldestLotOfWorkOrderWire } from '../floor/repository';
 import { applyCreateShipment } from '../shipments/service';
 import { judgeUnit } from '../test-records/judge';
 import { findUserByEmail } from '../users/repository';
@@ -87,7 +88,6 @@ export async function seedShipments(db: Db) {
   const hands = await tx.select({ id: users.id }).from(users).where(inArray(users.email, DEMO_FLOOR_STAFF.map((p) => p.email))).orderBy(asc(users.id));
   const handIds = hands.length ? hands.map((h) => h.id) : [shipper.id];
   const instrumentIds = await ensureInstruments(tx);
-  const [anyLot] = await tx.select({ lot: spools.lot }).from(spools).limit(1);
 
   const rows = await tx
     .select({ wo: workOrders, order: orders, lineNo: orderLines.lineNo, tolerancePercent: orderLines.tolerancePercent, sheet: buildSheets })
@@ -127,7 +127,8 @@ export async function seedShipments(db: Db) {
     const records: (typeof testRecords.$inferInsert)[] = [];
     for (const [i, c] of list.entries()) {
       const hand = handIds[(k + i) % handIds.length];
-      await walkToPacking(tx, c.wo, hand, lots.get(c.wo.id) ?? anyLot?.lot ?? 'LOT-DEMO', c.sheet.result.turns, new Date(tested.getTime() + 4 * 3_600_000));
+      const lot = lots.get(c.wo.id) ?? (await oldestLotOfWorkOrderWire(tx, c.wo.id)) ?? 'no lot recorded';
+      await walkToPacking(tx, c.wo, hand, lot, c.sheet.result.turns, new Date(tested.getTime() + 4 * 3_600_000));
       for (let u = 1; u <= c.wo.quantity; u++) {
         const serial = `${c.wo.number}-${String(u).padStart(3, '0')}`;
         let input = readings(r, c.sheet, c.tolerancePercent, serial, instrumentIds);

@@ -68,3 +68,12 @@ export async function insertReservations(tx: Tx, rows: (typeof spoolReservations
 export async function deleteReservations(tx: Tx, workOrderIds: number[]) {
   if (workOrderIds.length) await tx.delete(spoolReservations).where(inArray(spoolReservations.workOrderId, workOrderIds));
 }
+
+/** Spools of this wire carrying a lot number (any case): the lot a winder wound a job from. */
+export function spoolsOfWireWithLot(db: Db | Tx, k: WireKey, lot: string) {
+  return db
+    .select({ id: spools.id })
+    .from(spools)
+    .where(and(sameWire(k), sql`lower(${spools.lot}) = ${lot.toLowerCase()}`))
+    .limit(1);
+}

@@ -119,3 +119,9 @@ export const stockCheck = z.object({
   ),
 });
 export type StockCheck = z.infer<typeof stockCheck>;
+
+/** A wire in words, e.g. "copper AWG 27, grade 2" or "aluminium 0.9 mm, grade 2". */
+export function wireWords(k: { conductor: 'copper' | 'aluminium'; wire: WireSize; insulationGrade: number }): string {
+  const size = k.wire.standard === 'AWG' ? `AWG ${k.wire.gauge}` : `${Number((k.wire.diameter * 1000).toPrecision(3))} mm`;
+  return `${k.conductor} ${size}, grade ${k.insulationGrade}`;
+}

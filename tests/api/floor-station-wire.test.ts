@@ -1,7 +1,8 @@
 /**
  * A winder's wire-size range against the work it is given: assigning work to a winder, and the
  * winding record's station, are refused (422, rule station_wire_range, fields.stationId) when the
- * work order's wire lies outside the range; the edges are inclusive.
+ * work order's wire lies outside the range; the edges are inclusive. The winding record's spool
+ * lot must be of the wire the work order winds.
  *
  * The wire is copper AWG 34 (tests/helpers/floor.ts). Its nominal bare diameter, 0.0063 in =
  * 0.160 mm, is ASTM B258 Table 1; the test takes the exact value from the work order's own sheet.
@@ -10,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { wireOutsideStation } from '../../server/floor/service';
 import { csrf, testApp } from '../helpers/app';
 import { newCompany } from '../helpers/orders';
+import { receiveSpool } from '../helpers/build-sheets';
 import { move, moveOk, newStation, receiveFloorWire, releasedWorkOrders, type Wo } from '../helpers/floor';
 
 const t = testApp();
@@ -68,9 +70,14 @@ describe('a winder’s wire-size range', () => {
     expect(res.body.workOrders[0].station.id).toBe(edge.id);
   });
 
-  it('refuses a winding record naming a winder that does not take the wire', async () => {
+  it('refuses a winding record naming a winder that does not take the wire, or a lot of another wire', async () => {
     const wo = wos[1]!;
     let cur = await moveOk(foreman, wo.id, 'winding');
+    // Traceability: a lot of AWG 24 cannot be what an AWG 34 job was wound from.
+    const other = await receiveSpool(await t.signIn('office'), 24, 5, undefined, `OTHER-WIRE-${process.pid}`, 2);
+    const wrongLot = await move(foreman, wo.id, 'terminating', { turnsCounter: 100, spoolLot: other.lot, stationId: (await newStation(admin)).id });
+    expect(wrongLot.status).toBe(422);
+    expect(wrongLot.body.error.fields.spoolLot).toBe(`Lot ${other.lot} is not copper AWG 34, grade 1, the wire ${wo.number} winds`);
     const coarse = await newStation(admin, { wireDiameterMin: 0.25e-3, wireDiameterMax: 1.0e-3 });
     const refused = await move(foreman, wo.id, 'terminating', { turnsCounter: 100, spoolLot: LOT, stationId: coarse.id });
     expect(refused.status).toBe(422);
