@@ -134,6 +134,7 @@ ${button(link, 'Follow the order')}`,
     const how = [p.carrier, p.service].filter(Boolean).join(', ');
     const tracking = p.trackingNumber ? String(p.trackingNumber) : 'none (delivered without tracking)';
     const open = (l: ShipmentLine) => (l.remaining > 0 ? `${l.remaining} still open` : 'complete');
+    const lineName = (l: ShipmentLine) => `${l.lineNo}. ${l.title}${l.customerPartNumber ? ` (your part ${l.customerPartNumber})` : ''}`;
     const text = [
       `Your coils are on their way.`,
       ``,
@@ -145,10 +146,16 @@ ${button(link, 'Follow the order')}`,
       ``,
       ...orders.flatMap((o) => [
         ...orderFactsText(o as unknown as Payload),
-        `Shipped now, and what remains open:`,
+        `In this shipment:`,
         ...o.lines
-          .filter((l) => l.shippedNow > 0 || l.remaining > 0)
-          .map((l) => `  ${l.lineNo}. ${l.title}${l.customerPartNumber ? ` (your part ${l.customerPartNumber})` : ''}: ${l.shippedNow} shipped now (${l.serialCount} serial${l.serialCount === 1 ? '' : 's'}); ${l.shippedTotal} of ${l.quantity} shipped so far, ${open(l)}`),
+          .filter((l) => l.shippedNow > 0)
+          .map((l) => `  ${lineName(l)}: ${l.shippedNow} (${l.serialCount} serial${l.serialCount === 1 ? '' : 's'}); ${l.shippedTotal} of ${l.quantity} shipped so far, ${open(l)}`),
+        ...(o.lines.some((l) => l.shippedNow === 0 && l.remaining > 0)
+          ? [
+              `Still open on this order:`,
+              ...o.lines.filter((l) => l.shippedNow === 0 && l.remaining > 0).map((l) => `  ${lineName(l)}: ${l.remaining} of ${l.quantity} to come`),
+            ]
+          : []),
         ...(orders.length > 1 ? [`Follow this order: ${link(o)}`] : []),
         ``,
       ]),

@@ -66,7 +66,7 @@ describe('the shipment notice', () => {
     expect(m.text).toContain(`Tracking number: ${tracking}`);
     expect(m.text).toContain('Test Carrier, Next day');
     // What shipped against which PO line, and what remains open: 20 of the line's 25 now, 5 open.
-    expect(m.text).toMatch(/1\. Test-record coil.*: 20 shipped now \(20 serials\); 20 of 25 shipped so far, 5 still open/);
+    expect(m.text).toMatch(/In this shipment:\n  1\. Test-record coil.*: 20 \(20 serials\); 20 of 25 shipped so far, 5 still open/);
     expect(m.text).toContain(`/portal/orders/`);
     expect(m.html).toContain('/portal/orders/');
     expect((await t.deps.db.select().from(notifications).where(eq(notifications.id, row.id)))[0].status).toBe('sent');
