@@ -58,7 +58,7 @@ export function DesignFeedbackPage() {
   const f = q.data;
   return (
     <div className="flex flex-col gap-5" data-testid="design-feedback">
-      <PageHeader title="Design feedback" lead="How the built units compare with their designs: measured against computed, per released build sheet (first tests only for R20)." />
+      <PageHeader title="Design feedback" lead="How the built units compare with their designs: measured against computed, per released build sheet (R20: each unit as it stands now, its latest test; units whose resistance failed are left out as defects, not design error)." />
       <ShopHeatTransfer />
       <Panel title={`Designs (${f.designs.length})`}>
         <DataTable data={f.designs} columns={columns(u)} noun="design" csvName="design-feedback" getRowId={(r) => String(r.buildSheetId)} empty="No released design has test records yet." />
