@@ -223,9 +223,11 @@ export async function wireLotsOf(db: Db | Tx, workOrderIds: number[]) {
     .from(spoolReservations)
     .innerJoin(spools, eq(spools.id, spoolReservations.spoolId))
     .where(inArray(spoolReservations.workOrderId, ids));
+  // The lot recorded at winding, with its supplier from the spool(s) of that lot.
   const wound = await db
-    .select({ workOrderId: workOrderEvents.workOrderId, lot: workOrderEvents.spoolLot })
+    .select({ workOrderId: workOrderEvents.workOrderId, lot: workOrderEvents.spoolLot, supplier: spools.supplier })
     .from(workOrderEvents)
+    .leftJoin(spools, sql`lower(${spools.lot}) = lower(${workOrderEvents.spoolLot})`)
     .where(and(inArray(workOrderEvents.workOrderId, ids), sql`${workOrderEvents.spoolLot} is not null`));
   const out = new Map<number, { lot: string; supplier: string | null; wound: boolean }[]>();
   const add = (w: number, lot: string, supplier: string | null, woundFrom: boolean) => {
@@ -238,7 +240,7 @@ export async function wireLotsOf(db: Db | Tx, workOrderIds: number[]) {
     else list.push({ lot, supplier, wound: woundFrom });
     out.set(w, list);
   };
-  for (const r of wound) add(r.workOrderId, r.lot!, null, true);
+  for (const r of wound) add(r.workOrderId, r.lot!, r.supplier, true);
   for (const r of reserved) add(r.workOrderId, r.lot, r.supplier, false);
   return out;
 }

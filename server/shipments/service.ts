@@ -217,10 +217,21 @@ export async function applyCreateShipment(tx: Tx, actor: SessionUser, input: Cre
   const partIds = plan.filter((p) => !p.fully).map((p) => p.row.wo.id);
   const moved = await woRepo.updateWorkOrders(tx, fullIds, { stage: 'shipped' });
   const touched = await woRepo.updateWorkOrders(tx, partIds, {});
-  await woRepo.insertEvents(
-    tx,
-    moved.map((w) => ({ workOrderId: w.id, kind: 'move' as const, userId: actor.id, fromStage: 'packing' as const, toStage: 'shipped' as const, note: number, stationId: w.stationId, at })),
-  );
+  const unitsOf = (id: number) => plan.find((p) => p.row.wo.id === id)!.serials.length;
+  await woRepo.insertEvents(tx, [
+    ...moved.map((w) => ({ workOrderId: w.id, kind: 'move' as const, userId: actor.id, fromStage: 'packing' as const, toStage: 'shipped' as const, note: number, stationId: w.stationId, at })),
+    // Part of a work order leaving: its history says so, though its stage stays packing.
+    ...touched.map((w) => ({
+      workOrderId: w.id,
+      kind: 'shipment' as const,
+      userId: actor.id,
+      fromStage: w.stage,
+      toStage: w.stage,
+      note: `${unitsOf(w.id)} unit(s) shipped in ${number}; the rest stay in packing`,
+      stationId: w.stationId,
+      at,
+    })),
+  ]);
   for (const w of [...moved, ...touched]) {
     const change: FloorChange = { kind: 'move', id: w.id, number: w.number, stage: w.stage, version: w.version, at: w.updatedAt.toISOString() };
     await notifyFloor(tx, change);

@@ -123,9 +123,11 @@ export const workOrderListResponse = z.object({ workOrders: z.array(workOrderSum
 
 /**
  * What an event records: the release (fromStage null), a stage move, an assignment (fromStage =
- * toStage; note "assigned to X at station Y") or a priority change (fromStage = toStage).
+ * toStage; note "assigned to X at station Y"), a priority change (fromStage = toStage), or part
+ * of its units leaving in a shipment while the rest stay in packing (fromStage = toStage; note
+ * names the units and the shipment). A shipment that takes every unit writes a move to shipped.
  */
-export const WORK_ORDER_EVENT_KINDS = ['release', 'move', 'assign', 'priority'] as const;
+export const WORK_ORDER_EVENT_KINDS = ['release', 'move', 'assign', 'priority', 'shipment'] as const;
 export type WorkOrderEventKind = (typeof WORK_ORDER_EVENT_KINDS)[number];
 
 /** One row of a work order's history: a stage move (or the release: fromStage null). Never rewritten. */

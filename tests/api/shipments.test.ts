@@ -104,6 +104,10 @@ describe('shipment rules', () => {
     expect(w.stage).toBe('packing');
     expect(w.version).toBe(before.version + 1);
     expect((await orderOf(a1.id)).status).toBe('partly_shipped');
+    // The work order's history says part of it left, though its stage stays packing.
+    const partEvents = await db().select().from(workOrderEvents).where(sql`${workOrderEvents.workOrderId} = ${a1.id} and ${workOrderEvents.kind} = 'shipment'`);
+    expect(partEvents).toHaveLength(1);
+    expect(partEvents[0]).toMatchObject({ fromStage: 'packing', toStage: 'packing', note: `10 unit(s) shipped in ${res.body.number}; the rest stay in packing` });
 
     // The same serial again: shipped already.
     const again = await ship(shipmentBody([a1.id], { partial: [{ workOrderId: a1.id, serials: [first[0]] }] }));

@@ -21,7 +21,7 @@ import { MoveDialog, moveNeedsForm, type MoveTarget } from './MoveDialog';
 import { BuildEssentials, DueFlags, HipotCaution, StageTag, WriteError, ageSince, hours, priorityLabel } from './parts';
 import { moveDirection } from './stageRules';
 
-const EVENT_WORDS: Record<WorkOrderEventRecord['kind'], string> = { release: 'Released', move: 'Moved', assign: 'Assigned', priority: 'Priority' };
+const EVENT_WORDS: Record<WorkOrderEventRecord['kind'], string> = { release: 'Released', move: 'Moved', assign: 'Assigned', priority: 'Priority', shipment: 'Part shipped' };
 
 export function WorkOrderPage() {
   const { id: raw } = useParams();

@@ -1,0 +1,1 @@
+ALTER TYPE "public"."work_order_event_kind" ADD VALUE 'shipment';
