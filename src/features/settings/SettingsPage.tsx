@@ -25,6 +25,7 @@ const FIELDS: Path<ShopSettingsRecord>[] = [
   'shiftHoursPerDay',
   'defaultSpindleRpm',
   'defaultSetupSeconds',
+  'defaultHeatTransferCoefficient',
   ...STANDARD_TIMED_STAGES.flatMap((s) => [`stageStandardTimes.${s}.minutesPerUnit`, `stageStandardTimes.${s}.minutesPerBatch`] as Path<ShopSettingsRecord>[]),
 ];
 
@@ -64,6 +65,16 @@ function SettingsForm({ current }: { current: ShopSettingsRecord }) {
         <div className="grid gap-4 sm:grid-cols-3">
           <TextField label="Units per work order" type="number" min={1} step={1} error={e.unitsPerWorkOrder?.message} {...register('unitsPerWorkOrder', num)} />
           <TextField label="Wire scrap allowance (%)" type="number" min={0} step={0.5} error={e.scrapAllowancePercent?.message} {...register('scrapAllowancePercent', num)} />
+          <TextField
+            label="Heat-transfer coefficient for new sheets, W/(m²·K)"
+            type="number"
+            step={0.1}
+            min={0}
+            placeholder="the engine’s default"
+            hint="Empty: the engine’s still-air default. Engineers adopt the shop’s measured value from Design feedback; sheets already drafted keep theirs."
+            error={e.defaultHeatTransferCoefficient?.message}
+            {...register('defaultHeatTransferCoefficient', { setValueAs: (v: unknown) => (v === '' || v === null || v === undefined ? null : Number(v)) })}
+          />
         </div>
       </Panel>
       <Panel title="Floor estimates">
