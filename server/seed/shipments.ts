@@ -17,9 +17,10 @@ import { createShipmentRequest } from '../../src/contracts/shipments';
 import { FLOOR_STAGES } from '../../src/contracts/floor';
 import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
-import { buildSheets, customers, notifications, orderEvents, orderLines, orders, shipments, spoolReservations, spools, testRecords, users, workOrderEvents, workOrders } from '../db/schema';
+import { buildSheets, customers, notifications, orderEvents, orderLines, orders, shipments, spoolReservations, spools, stations, testRecords, users, workOrderEvents, workOrders } from '../db/schema';
 import { addDays, localDate } from '../floor/estimate';
 import { oldestLotOfWorkOrderWire } from '../floor/repository';
+import { wireOutsideStation } from '../floor/service';
 import { applyCreateShipment } from '../shipments/service';
 import { judgeUnit } from '../test-records/judge';
 import { findUserByEmail } from '../users/repository';
@@ -56,7 +57,7 @@ export const demoCustomerUsersStep = {
 };
 
 /** A compact floor history of a work order: one move per stage into packing, by one floor hand. */
-async function walkToPacking(tx: Tx, wo: typeof workOrders.$inferSelect, by: number, lot: string, turns: number, until: Date) {
+async function walkToPacking(tx: Tx, wo: typeof workOrders.$inferSelect, by: number, lot: string, turns: number, stationId: number | null, until: Date) {
   const stages = FLOOR_STAGES as Stage[];
   const from = wo.createdAt.getTime();
   const span = Math.max(until.getTime() - from, 3_600_000);
@@ -69,12 +70,12 @@ async function walkToPacking(tx: Tx, wo: typeof workOrders.$inferSelect, by: num
       fromStage: stages[i],
       toStage: to,
       note: '',
-      ...(to === 'terminating' && { turnsCounter: turns, spoolLot: lot }),
+      ...(to === 'terminating' && { turnsCounter: turns, spoolLot: lot, stationId }),
     })),
   );
   await tx
     .update(workOrders)
-    .set({ stage: 'packing', version: sql`${workOrders.version} + ${stages.length - 1}`, updatedAt: until })
+    .set({ stage: 'packing', stationId, version: sql`${workOrders.version} + ${stages.length - 1}`, updatedAt: until })
     .where(eq(workOrders.id, wo.id));
 }
 
@@ -110,6 +111,13 @@ export async function seedShipments(db: Db) {
     ).map((x) => [x.workOrderId, x.lot]),
   );
 
+  // Each job was wound at a winder that takes its wire (the floor's rule), taking turns.
+  const winders = await tx.select().from(stations).where(eq(stations.kind, 'winder')).orderBy(asc(stations.id));
+  const winderFor = (n: number, number: string, bareDiameter: number) => {
+    const fits = winders.filter((st) => wireOutsideStation(st, [{ number, bareDiameter }]).length === 0);
+    return fits.length ? fits[n % fits.length].id : null;
+  };
+
   const today = localDate();
   const byOrder = new Map<number, typeof chosen>();
   for (const c of chosen) byOrder.set(c.order.id, [...(byOrder.get(c.order.id) ?? []), c]);
@@ -128,7 +136,8 @@ export async function seedShipments(db: Db) {
     for (const [i, c] of list.entries()) {
       const hand = handIds[(k + i) % handIds.length];
       const lot = lots.get(c.wo.id) ?? (await oldestLotOfWorkOrderWire(tx, c.wo.id)) ?? 'no lot recorded';
-      await walkToPacking(tx, c.wo, hand, lot, c.sheet.result.turns, new Date(tested.getTime() + 4 * 3_600_000));
+      const stationId = winderFor(k + i, c.wo.number, c.sheet.result.wire.bareDiameter);
+      await walkToPacking(tx, c.wo, hand, lot, c.sheet.result.turns, stationId, new Date(tested.getTime() + 4 * 3_600_000));
       for (let u = 1; u <= c.wo.quantity; u++) {
         const serial = `${c.wo.number}-${String(u).padStart(3, '0')}`;
         let input = readings(r, c.sheet, c.tolerancePercent, serial, instrumentIds);
@@ -153,6 +162,7 @@ export async function seedShipments(db: Db) {
           readings: j.readings,
           entered: input,
           instrumentIds,
+          stationId,
           testedBy: hand,
           testedAt: new Date(tested.getTime() + u * 120_000),
         });
