@@ -141,10 +141,32 @@ export function formatMass(kg: number | null | undefined, unit: MassUnit, digits
   return `${formatNumber(fromKilograms(kg, unit), digits)}${UNIT_SPACE}${unit}`;
 }
 
+/**
+ * A server sentence (the coil engine's warnings are written in SI: "reaches 182.4 °C, plus 10.0 K
+ * hot-spot allowance", "a 0.361 mm wire") restated in the user's units: each "<number> °C" is a
+ * temperature, "<number> K" a temperature difference, "<number> mm" a length. Metric / Celsius
+ * users get the sentence unchanged.
+ */
+export function unitsInText(text: string, prefs: UnitPreferences): string {
+  const num = String.raw`(-?\d+(?:\.\d+)?)`;
+  let out = text;
+  if (prefs.temperatureUnit !== 'C') {
+    out = out.replace(new RegExp(`${num}\\s?°C`, 'g'), (_, v: string) => formatTemperature(Number(v), prefs.temperatureUnit, decimalsOf(v)));
+    out = out.replace(new RegExp(`${num}\\s?K\\b`, 'g'), (_, v: string) => formatTemperatureDifference(Number(v), prefs.temperatureUnit, decimalsOf(v)));
+  }
+  if (prefs.lengthUnit !== 'mm') {
+    out = out.replace(new RegExp(`${num}\\s?mm\\b`, 'g'), (_, v: string) => formatLength(Number(v) / 1000, prefs.lengthUnit));
+  }
+  return out;
+}
+const decimalsOf = (v: string) => (v.includes('.') ? v.split('.')[1]!.length : 0);
+
 /** Formatters bound to one user's preferences. */
 export function unitFormatters(prefs: UnitPreferences) {
   return {
     prefs,
+    /** A server sentence with its SI quantities in the user's units (unitsInText). */
+    text: (sentence: string) => unitsInText(sentence, prefs),
     length: (metres: number | null | undefined, digits?: number) => formatLength(metres, prefs.lengthUnit, digits),
     temperature: (celsius: number | null | undefined, digits?: number) => formatTemperature(celsius, prefs.temperatureUnit, digits),
     temperatureDifference: (kelvin: number | null | undefined, digits?: number) =>

@@ -18,6 +18,7 @@ import {
   toCelsius,
   toKelvinDifference,
   toMetres,
+  unitsInText,
   unitFormatters,
 } from '../../src/lib/units';
 
@@ -123,5 +124,24 @@ describe('areas', () => {
     expect(formatArea(9.5e-5, 'mm')).toBe(`95.00${NBSP}mm²`);
     expect(formatArea(toSquareMetres(0.5, 'in'), 'in')).toBe(`0.50000${NBSP}in²`);
     expect(formatArea(null, 'mm')).toBe(MISSING);
+  });
+});
+
+describe('unitsInText: a server sentence in the user’s units', () => {
+  // °F = °C × 9/5 + 32; a difference of 1 K = 9/5 °F; 1 in = 25.4 mm exactly (NIST SP 811 §4.2.1.1, appendix B).
+  const sentence = 'The winding reaches 182.4 °C, plus 10.0 K hot-spot allowance, above the 155 °C limit; a 0.361 mm wire.';
+  it('leaves it alone for metric, Celsius users', () => {
+    expect(unitsInText(sentence, { lengthUnit: 'mm', temperatureUnit: 'C' })).toBe(sentence);
+  });
+  it('restates temperatures, differences and lengths for inch, Fahrenheit users', () => {
+    const out = unitsInText(sentence, { lengthUnit: 'in', temperatureUnit: 'F' });
+    expect(out).toContain('360.3\u00a0°F'); // 182.4 × 9/5 + 32 = 360.32
+    expect(out).toContain('18.0\u00a0°F hot-spot'); // 10.0 K × 9/5
+    expect(out).toContain('311\u00a0°F limit'); // 155 × 9/5 + 32
+    expect(out).toContain('0.0142\u00a0in wire'); // 0.361 / 25.4 = 0.014213
+    expect(out).not.toMatch(/°C|\bK\b|mm/);
+  });
+  it('does not touch a unit that merely contains K, such as W/(m²·K)', () => {
+    expect(unitsInText('h = 10 W/(m²·K)', { lengthUnit: 'in', temperatureUnit: 'F' })).toBe('h = 10 W/(m²·K)');
   });
 });

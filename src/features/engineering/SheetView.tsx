@@ -13,7 +13,7 @@ import { CAUTIONS, PULL_CAUTION, placeOf, warningKind, type WarningPlace } from 
 
 type Warning = EngineSheet['warnings'][number];
 
-function WarningNote({ w }: { w: Warning }) {
+function WarningNote({ w, u }: { w: Warning; u: UnitFormatters }) {
   const kind = warningKind(w.code);
   const caution = CAUTIONS[w.code];
   return (
@@ -24,7 +24,7 @@ function WarningNote({ w }: { w: Warning }) {
     >
       <StatusShape kind={kind} className={`mt-0.5 size-3.5 ${kind === 'fault' ? 'text-fault' : 'text-caution'}`} />
       <div>
-        <p className={`font-semibold ${kind === 'fault' ? 'text-fault' : 'text-caution'}`}>{w.message}</p>
+        <p className={`font-semibold ${kind === 'fault' ? 'text-fault' : 'text-caution'}`}>{u.text(w.message)}</p>
         {caution && <p className="text-graphite-800">{caution}</p>}
       </div>
     </div>
@@ -33,7 +33,7 @@ function WarningNote({ w }: { w: Warning }) {
 
 type Row = { label: ReactNode; value: ReactNode; testId?: string; note?: ReactNode; place?: WarningPlace };
 
-function Group({ title, rows, warnings }: { title: string; rows: Row[]; warnings: Warning[] }) {
+function Group({ title, rows, warnings, u }: { title: string; rows: Row[]; warnings: Warning[]; u: UnitFormatters }) {
   return (
     <section>
       <h3 className="mb-1 text-xs font-bold tracking-wider text-graphite-500 uppercase">{title}</h3>
@@ -51,7 +51,7 @@ function Group({ title, rows, warnings }: { title: string; rows: Row[]; warnings
               </div>
               {r.note && <p className="text-right text-xs text-graphite-500">{r.note}</p>}
               {here.map((w) => (
-                <WarningNote key={w.code} w={w} />
+                <WarningNote key={w.code} w={w} u={u} />
               ))}
             </div>
           );
@@ -73,10 +73,11 @@ export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineS
   return (
     <div className="flex flex-col gap-4" data-testid="sheet">
       {general.map((x) => (
-        <WarningNote key={x.code} w={x} />
+        <WarningNote key={x.code} w={x} u={u} />
       ))}
       <div className="grid gap-x-6 gap-y-4 md:grid-cols-2">
         <Group
+          u={u}
           title="Wire"
           warnings={w}
           rows={[
@@ -87,6 +88,7 @@ export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineS
           ]}
         />
         <Group
+          u={u}
           title="Winding"
           warnings={w}
           rows={[
@@ -102,6 +104,7 @@ export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineS
           ]}
         />
         <Group
+          u={u}
           title="Electrical"
           warnings={w}
           rows={[
@@ -127,6 +130,7 @@ export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineS
           ]}
         />
         <Group
+          u={u}
           title="Thermal"
           warnings={w}
           rows={[
@@ -146,6 +150,7 @@ export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineS
           ]}
         />
         <Group
+          u={u}
           title="Magnetic"
           warnings={w}
           rows={[

@@ -99,7 +99,7 @@ export function SweepTable({
               // Runaway says more than over-temperature; one badge for the pair.
               .filter((w, _i, all) => !(w.code === 'over-temperature' && all.some((x) => x.code === 'thermal-runaway')))
               .map((w) => (
-                <span key={w.code} title={w.message} className={`inline-flex items-center gap-1 rounded border px-1 text-xs font-semibold whitespace-nowrap ${warningKind(w.code) === 'fault' ? 'border-fault/40 bg-fault-soft text-fault' : 'border-caution/40 bg-caution-soft text-caution'}`}>
+                <span key={w.code} title={u.text(w.message)} className={`inline-flex items-center gap-1 rounded border px-1 text-xs font-semibold whitespace-nowrap ${warningKind(w.code) === 'fault' ? 'border-fault/40 bg-fault-soft text-fault' : 'border-caution/40 bg-caution-soft text-caution'}`}>
                   <StatusShape kind={warningKind(w.code)} className="size-2.5" />
                   {SHORT[w.code] ?? w.code}
                 </span>
