@@ -1,6 +1,7 @@
 /**
  * The office table: click a heading to sort, type to search every column, narrow single columns
- * with their own filters, export exactly what is shown (filtered and sorted) as CSV.
+ * with their own filters, export what the filters leave (all pages, in the shown order) as CSV.
+ * Long tables show a page at a time (PAGE_SIZES; "All" shows every row).
  *
  * Columns are TanStack Table column definitions. Extra settings go in `meta`:
  *   label   — the column's name in CSV and filter labels (default: the header text or id)
@@ -14,12 +15,14 @@ import {
   getFacetedRowModel,
   getFacetedUniqueValues,
   getFilteredRowModel,
+  getPaginationRowModel,
   getSortedRowModel,
   useReactTable,
   type Column,
   type ColumnDef,
   type ColumnFiltersState,
   type FilterFn,
+  type PaginationState,
   type RowData,
   type SortingState,
   type Table,
@@ -52,11 +55,11 @@ function columnLabel<T>(column: Column<T, unknown>): string {
   return column.columnDef.meta?.label ?? (typeof header === 'string' ? header : column.id);
 }
 
-/** The CSV of the rows the table shows now, in its order (filtered and sorted). */
+/** The CSV of the rows the filters leave, every page, in the table's order (filtered and sorted). */
 export function tableToCsv<T>(table: Table<T>): string {
   const columns = table.getVisibleLeafColumns().filter((c) => c.accessorFn);
   const header = columns.map((c) => columnLabel(c));
-  const rows = table.getRowModel().rows.map((row) =>
+  const rows = table.getPrePaginationRowModel().rows.map((row) =>
     columns.map((c) => {
       const custom = c.columnDef.meta?.csv;
       return custom ? custom(row.original) : (row.getValue(c.id) as CsvCell);
@@ -64,6 +67,12 @@ export function tableToCsv<T>(table: Table<T>): string {
   );
   return toCsv(header, rows);
 }
+
+/** Rows per page on offer; 0 = all rows. */
+export const PAGE_SIZES = [25, 50, 100, 0] as const;
+const DEFAULT_PAGE_SIZE = 50;
+/** "All" as a page size TanStack Table understands. */
+const ALL_ROWS = 1_000_000_000;
 
 export type DataTableProps<T> = {
   data: T[];
@@ -86,7 +95,9 @@ export function DataTable<T>({ data, columns, noun, nounPlural = `${noun}s`, csv
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
   const [globalFilter, setGlobalFilter] = useState('');
   const [columnFilters, setColumnFilters] = useState<ColumnFiltersState>([]);
+  const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: DEFAULT_PAGE_SIZE });
   const searchId = useId();
+  const pageSizeId = useId();
 
   const preparedColumns = useMemo(
     () =>
@@ -101,8 +112,11 @@ export function DataTable<T>({ data, columns, noun, nounPlural = `${noun}s`, csv
   const table = useReactTable<T>({
     data,
     columns: preparedColumns,
-    state: { sorting, globalFilter, columnFilters },
+    state: { sorting, globalFilter, columnFilters, pagination },
     onSortingChange: setSorting,
+    onPaginationChange: setPagination,
+    // A new filter starts at the first page.
+    autoResetPageIndex: true,
     onGlobalFilterChange: setGlobalFilter,
     onColumnFiltersChange: setColumnFilters,
     globalFilterFn: containsText as FilterFn<T>,
@@ -110,13 +124,18 @@ export function DataTable<T>({ data, columns, noun, nounPlural = `${noun}s`, csv
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
     getFilteredRowModel: getFilteredRowModel(),
+    getPaginationRowModel: getPaginationRowModel(),
     getFacetedRowModel: getFacetedRowModel(),
     getFacetedUniqueValues: getFacetedUniqueValues(),
     getRowId,
   });
 
   const rows = table.getRowModel().rows;
+  const matching = table.getPrePaginationRowModel().rows.length;
   const total = data.length;
+  const paged = matching > pagination.pageSize;
+  const first = pagination.pageIndex * pagination.pageSize + 1;
+  const last = Math.min(matching, first + rows.length - 1);
   const filtered = globalFilter !== '' || columnFilters.length > 0;
   const filterColumns = table.getAllLeafColumns().filter((c) => c.columnDef.meta?.filter);
 
@@ -154,7 +173,7 @@ export function DataTable<T>({ data, columns, noun, nounPlural = `${noun}s`, csv
         )}
         <div className="ml-auto flex items-end gap-2">
           {toolbar}
-          <Button size="sm" className="h-9" onClick={() => downloadCsv(csvName, tableToCsv(table))} disabled={rows.length === 0}>
+          <Button size="sm" className="h-9" onClick={() => downloadCsv(csvName, tableToCsv(table))} disabled={matching === 0}>
             <svg viewBox="0 0 16 16" className="size-4" aria-hidden>
               <path d="M8 2v8m0 0L5 7m3 3 3-3M3 12.5h10" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" strokeLinejoin="round" />
             </svg>
@@ -218,9 +237,44 @@ export function DataTable<T>({ data, columns, noun, nounPlural = `${noun}s`, csv
           </tbody>
         </table>
       </div>
-      <p className="text-sm text-graphite-600" aria-live="polite" data-testid="row-count">
-        {filtered ? `${rows.length} of ${total} ${total === 1 ? noun : nounPlural} shown` : `${total} ${total === 1 ? noun : nounPlural}`}
-      </p>
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
+        <p className="text-sm text-graphite-600" aria-live="polite" data-testid="row-count">
+          {filtered ? `${matching} of ${total} ${total === 1 ? noun : nounPlural} shown` : `${total} ${total === 1 ? noun : nounPlural}`}
+          {paged && ` · rows ${first}–${last}`}
+        </p>
+        {total > PAGE_SIZES[0] && (
+          <div className="ml-auto flex items-center gap-2 text-sm" data-testid="pager">
+            <label htmlFor={pageSizeId} className="text-graphite-700">
+              Rows per page
+            </label>
+            <select
+              id={pageSizeId}
+              value={pagination.pageSize === ALL_ROWS ? 0 : pagination.pageSize}
+              onChange={(e) => setPagination({ pageIndex: 0, pageSize: Number(e.target.value) || ALL_ROWS })}
+              className="h-8 rounded-md border border-graphite-300 bg-white px-1.5"
+            >
+              {PAGE_SIZES.map((n) => (
+                <option key={n} value={n}>
+                  {n === 0 ? 'All' : n}
+                </option>
+              ))}
+            </select>
+            {paged && (
+              <>
+                <Button size="sm" variant="quiet" className="h-8" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
+                  ← Previous
+                </Button>
+                <span className="text-graphite-700 tabular-nums">
+                  Page {pagination.pageIndex + 1} of {table.getPageCount()}
+                </span>
+                <Button size="sm" variant="quiet" className="h-8" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>
+                  Next →
+                </Button>
+              </>
+            )}
+          </div>
+        )}
+      </div>
     </div>
   );
 }
