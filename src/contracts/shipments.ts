@@ -133,13 +133,12 @@ export type ListShipmentsQuery = z.infer<typeof listShipmentsQuery>;
 export type ShipmentRefusal = { workOrderId: number; number: string; reasons: string[] };
 
 /** One work order waiting in packing, and whether it may ship now (the server decides). */
-export type ReadyWorkOrder = {
+/** The order line a work order builds, as shipping documents and lists name it. */
+export type LineFacts = { lineId: number; lineNo: number; lineTitle: string; customerPartNumber: string };
+
+export type ReadyWorkOrder = LineFacts & {
   id: number;
   number: string;
-  lineId: number;
-  lineNo: number;
-  lineTitle: string;
-  customerPartNumber: string;
   /** Units still to ship: good units minus those shipped already. */
   quantity: number;
   /** Serials of the units that may ship (passed or dispositioned use-as-is, not shipped yet). */
@@ -170,16 +169,12 @@ export type ShipmentDocumentInfo = {
   createdAt: string | null;
 };
 
-export type ShipmentItem = {
+export type ShipmentItem = LineFacts & {
   workOrderId: number;
   workOrderNumber: string;
   orderId: number;
   orderNumber: string;
   purchaseOrder: string;
-  lineId: number;
-  lineNo: number;
-  lineTitle: string;
-  customerPartNumber: string;
   quantity: number;
   serials: string[];
 };
