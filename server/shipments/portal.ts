@@ -32,7 +32,7 @@ import { localDate } from '../floor/estimate';
 import * as orderRepo from '../orders/repository';
 import { summaries } from '../work-orders/service';
 import * as repo from './repository';
-import { documentInfos, itemsByShipment } from './service';
+import { documentInfos, documentUrl, itemsByShipment } from './service';
 
 const scope = (viewer: SessionUser) => viewer.customerId ?? -1;
 const DONE_STATUSES = new Set(['shipped', 'closed', 'cancelled']);
@@ -156,7 +156,8 @@ async function portalShipments(db: Db, viewer: SessionUser, f: { id?: number; id
     documents: documentInfos(
       s.id,
       docs.filter((d) => d.shipmentId === s.id),
-    ).map((d) => ({ kind: d.kind, label: SHIPMENT_DOCUMENT_LABELS[d.kind], downloadUrl: d.downloadUrl })),
+    // Always a link: the download draws a document that is not drawn yet.
+    ).map((d) => ({ kind: d.kind, label: SHIPMENT_DOCUMENT_LABELS[d.kind], downloadUrl: documentUrl(s.id, d.kind) })),
   }));
 }
 

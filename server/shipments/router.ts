@@ -24,7 +24,7 @@ export function shipmentsRouter(deps: Deps) {
     res.json({ shipments: await shipments.listShipments(db, parse(listShipmentsQuery, req.query)) });
   });
   r.get('/shipments/:id', allow(...READERS), async (req, res) => {
-    res.json(await shipments.getShipment(db, idParam(req.params.id)));
+    res.json(await shipments.openShipment(db, deps.queues, idParam(req.params.id)));
   });
   r.get('/shipments/:id/documents/:kind', allow(...READERS, 'customer'), async (req, res) => {
     const kind = shipmentDocumentKind.safeParse(req.params.kind);

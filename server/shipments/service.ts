@@ -378,6 +378,17 @@ export async function listShipments(db: Db, q: Partial<ListShipmentsQuery>): Pro
   return rows.map((r) => toSummary(r, items.get(r.shipment.id) ?? []));
 }
 
+/**
+ * A shipment for the staff's page. Documents not drawn yet — a shipment recorded while the queue
+ * was down, or the demo's history — are asked of the worker now (idempotent job id); a queue that
+ * is down does not stop the read, and the download draws a missing document anyway.
+ */
+export async function openShipment(db: Db, queues: Queues, id: number): Promise<ShipmentRecord> {
+  const record = await getShipment(db, id);
+  if (record.documents.some((d) => d.state === 'pending')) await queueDocuments(db, queues, id).catch(() => undefined);
+  return record;
+}
+
 export async function getShipment(db: Db | Tx, id: number): Promise<ShipmentRecord> {
   const [row] = await repo.listShipments(db, { id });
   if (!row) throw notFound('No such shipment');

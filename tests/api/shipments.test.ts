@@ -227,6 +227,34 @@ describe('the certificate of conformance', () => {
   });
 });
 
+describe('documents not drawn yet', () => {
+  it('opening such a shipment asks the worker for them, and its customer still gets download links', async () => {
+    // The demo's past shipments are recorded without their documents drawn.
+    const [row] = (
+      await db().execute<{ id: number; customer_id: number }>(
+        sql`select s.id, s.customer_id from shipments s where not exists (select 1 from shipment_documents d where d.shipment_id = s.id) order by s.id limit 1`,
+      )
+    ).rows;
+    expect(row, 'a shipment without documents').toBeTruthy();
+    const jobId = `shipment-docs-${row.id}`;
+    await t.deps.queues.documents.remove(jobId);
+    const opened = await shipping.get(`/api/shipments/${row.id}`);
+    expect(opened.status).toBe(200);
+    expect(opened.body.documents.map((d: { state: string }) => d.state)).toEqual(['pending', 'pending']);
+    expect(await t.deps.queues.documents.getJob(jobId)).toBeTruthy();
+    const buyer = await customerAgent(t, Number(row.customer_id));
+    const mine = await buyer.get(`/api/portal/shipments/${row.id}`);
+    expect(mine.body.documents.map((d: { downloadUrl: string }) => d.downloadUrl)).toEqual([
+      `/api/shipments/${row.id}/documents/packing_list`,
+      `/api/shipments/${row.id}/documents/certificate`,
+    ]);
+    const pdf = await buyer.get(mine.body.documents[1].downloadUrl).buffer(true).parse(binary as never);
+    expect(pdf.status).toBe(200);
+    expect(String(pdf.headers['content-type'])).toBe('application/pdf');
+    expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+});
+
 describe('the customer view', () => {
   it('shows the customer its orders with progress words and its shipments with tracking', async () => {
     const buyer = await customerAgent(t, companyA.id);
