@@ -45,3 +45,6 @@ export function formatBytes(n: number): string {
   if (n < 1_000_000) return `${(n / 1000).toFixed(1)}\u00a0kB`;
   return `${(n / 1_000_000).toFixed(1)}\u00a0MB`;
 }
+
+/** A count of units, the trade's way: "1,250 pcs" (a no-break space keeps the unit with its number). */
+export const pieces = (n: number) => `${n.toLocaleString('en-US')}\u00a0pcs`;

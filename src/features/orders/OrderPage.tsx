@@ -10,7 +10,7 @@ import { Dialog } from '../../components/Dialog';
 import { Loading, Panel } from '../../components/Panel';
 import { errorMessage, isApiError } from '../../lib/api';
 import { applyServerErrors } from '../../lib/forms';
-import { formatBytes, formatDateTime, formatDay, plural } from '../../lib/format';
+import { formatBytes, formatDateTime, formatDay, pieces, plural } from '../../lib/format';
 import { useCurrentUser, useUnits } from '../../lib/session';
 import { customerQuery } from '../customers';
 import { OrderWorkOrders } from '../travelers';
@@ -362,7 +362,7 @@ export function OrderPage() {
               ) : (
                 <span className="font-semibold">{o.customer.name}</span>
               )}{' '}
-              · {plural(o.lines.length, 'line')}, {units.toLocaleString('en-US')}&nbsp;pcs
+              · {plural(o.lines.length, 'line')}, {pieces(units)}
             </p>
           </div>
           {canWrite && (
@@ -440,7 +440,7 @@ export function OrderPage() {
                   {l.title}
                   {l.customerPartNumber && <span className="ml-2 text-sm font-normal text-graphite-600">part {l.customerPartNumber}</span>}
                 </h3>
-                <span className="tabular font-semibold">{l.quantity.toLocaleString('en-US')}&nbsp;pcs</span>
+                <span className="tabular font-semibold">{pieces(l.quantity)}</span>
               </div>
               <div className="grid gap-4 px-4 py-3 md:grid-cols-[2fr_1fr]">
                 <RequirementFacts r={l.requirement} tolerancePercent={l.tolerancePercent} u={u} />

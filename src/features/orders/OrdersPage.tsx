@@ -8,7 +8,7 @@ import { Button, buttonClass } from '../../components/Button';
 import { DataTable } from '../../components/DataTable';
 import { Loading, PageHeader } from '../../components/Panel';
 import { errorMessage } from '../../lib/api';
-import { addDaysIso, formatDay, todayIso } from '../../lib/format';
+import { addDaysIso, formatDay, pieces, todayIso } from '../../lib/format';
 import { useCurrentUser } from '../../lib/session';
 import { ordersQuery, type OrderListFilter } from './api';
 import { LateBadge, OrderStatusBadge } from './status';
@@ -74,7 +74,7 @@ export function OrdersPage() {
       col.accessor('unitCount', {
         header: 'Units',
         meta: { align: 'right', label: 'Units (pcs)' },
-        cell: (c) => <span className="whitespace-nowrap">{c.getValue().toLocaleString('en-US')}&nbsp;pcs</span>,
+        cell: (c) => <span className="whitespace-nowrap">{pieces(c.getValue())}</span>,
       }),
     ],
     [isCustomer],

@@ -5,6 +5,7 @@
  * fills, and the line's plain-words summary is always written beside the bar.
  */
 import { PORTAL_PROGRESS, PORTAL_PROGRESS_LABELS, type PortalLine, type PortalProgress } from '../../contracts/shipments';
+import { pieces } from '../../lib/format';
 
 /** Left to right: furthest along first. */
 const ORDER: PortalProgress[] = [...PORTAL_PROGRESS].reverse();
@@ -70,7 +71,7 @@ export function LineProgress({ line }: { line: PortalLine }) {
           {line.title}
           {line.customerPartNumber && <span className="ml-2 inline-block text-sm font-normal whitespace-nowrap text-graphite-600">part {line.customerPartNumber}</span>}
         </p>
-        <span className="tabular text-sm font-semibold text-graphite-800">{line.quantity.toLocaleString('en-US')}&nbsp;pcs</span>
+        <span className="tabular text-sm font-semibold text-graphite-800">{pieces(line.quantity)}</span>
       </div>
       <ProgressBar line={line} />
       <p className="text-sm text-graphite-800" data-testid="line-summary">

@@ -1,7 +1,8 @@
 /** One shipment as the customer sees it: carrier, tracking, what was in it, and its documents. */
 import { Link } from 'react-router';
 import type { PortalShipment } from '../../contracts/shipments';
-import { formatDay, plural } from '../../lib/format';
+import { formatDay, pieces, plural } from '../../lib/format';
+import { LineName } from '../../components/LineName';
 import { Serials } from '../../components/Serials';
 import { AddressBlock } from '../customers';
 
@@ -100,10 +101,9 @@ export function ShipmentCard({ shipment, showOrders = false }: { shipment: Porta
                     </td>
                   )}
                   <td className="px-2 py-1">
-                    <span className="text-graphite-500">{i.lineNo}.</span> {i.lineTitle}
-                    {i.customerPartNumber && <span className="block text-xs whitespace-nowrap text-graphite-600">part {i.customerPartNumber}</span>}
+                    <LineName line={i} />
                   </td>
-                  <td className="tabular px-2 py-1 text-right font-semibold whitespace-nowrap">{i.quantity.toLocaleString('en-US')}&nbsp;pcs</td>
+                  <td className="tabular px-2 py-1 text-right font-semibold whitespace-nowrap">{pieces(i.quantity)}</td>
                   <td className="px-2 py-1">
                     <Serials serials={i.serials} show={4} />
                   </td>

@@ -12,7 +12,8 @@ import { Button } from '../../components/Button';
 import { Loading, PageHeader } from '../../components/Panel';
 import { StatusBadge } from '../../components/Status';
 import { errorMessage } from '../../lib/api';
-import { formatDay, formatDateTime, plural } from '../../lib/format';
+import { formatDay, formatDateTime, pieces, plural } from '../../lib/format';
+import { LineName } from '../../components/LineName';
 import { useCurrentUser } from '../../lib/session';
 import { AddressBlock } from '../customers';
 import { LateBadge } from '../orders';
@@ -151,10 +152,9 @@ function CustomerGroup({
                           </Link>
                         </td>
                         <td className="py-1.5 pr-3">
-                          <span className="text-graphite-500">{w.lineNo}.</span> {w.lineTitle}
-                          {w.customerPartNumber && <span className="block text-xs text-graphite-600">part {w.customerPartNumber}</span>}
+                          <LineName line={w} />
                         </td>
-                        <td className="tabular py-1.5 pr-3 text-right font-semibold whitespace-nowrap">{w.quantity.toLocaleString('en-US')}&nbsp;pcs</td>
+                        <td className="tabular py-1.5 pr-3 text-right font-semibold whitespace-nowrap">{pieces(w.quantity)}</td>
                         <td className="py-1.5 pr-3">
                           <Serials serials={w.serials} />
                         </td>
@@ -241,7 +241,7 @@ export function ReadyPage() {
         <div className="fixed inset-x-0 bottom-0 z-20 border-t-[3px] border-copper-500 bg-graphite-900 text-white" role="region" aria-label="Chosen for shipment">
           <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-3 px-4 py-2.5">
             <p className="flex-1 text-[1.05rem]" data-testid="selection">
-              <span className="font-bold">{plural(chosen.size, 'work order')}</span> of {locked.name} chosen · {units.toLocaleString('en-US')}&nbsp;pcs
+              <span className="font-bold">{plural(chosen.size, 'work order')}</span> of {locked.name} chosen · {pieces(units)}
             </p>
             <Button variant="secondary" onClick={() => setSelected(new Map())}>
               Clear

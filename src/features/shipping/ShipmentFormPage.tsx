@@ -16,7 +16,7 @@ import { TextField } from '../../components/Field';
 import { Loading, PageHeader, Panel } from '../../components/Panel';
 import { StatusBadge } from '../../components/Status';
 import { ApiError, errorMessage, isApiError } from '../../lib/api';
-import { addDaysIso, formatDay, plural, todayIso } from '../../lib/format';
+import { addDaysIso, formatDay, pieces, plural, todayIso } from '../../lib/format';
 import { applyServerErrors, formPaths, parseNumber } from '../../lib/forms';
 import { useUnits } from '../../lib/session';
 import { toKilograms, massUnitFor } from '../../lib/units';
@@ -74,7 +74,7 @@ function ItemEditor({ index, found }: { index: number; found: Found | undefined 
         <legend className="sr-only">How much of {wo.number} ships</legend>
         <label className="flex cursor-pointer items-center gap-2 rounded-md border border-graphite-300 px-3 py-1.5 text-sm font-semibold has-[:checked]:border-copper-600 has-[:checked]:bg-copper-50">
           <input type="radio" value="all" className="size-4 accent-copper-600" {...register(`items.${index}.ship`)} />
-          All {wo.quantity.toLocaleString('en-US')}&nbsp;pcs still to ship
+          All {pieces(wo.quantity)} still to ship
         </label>
         <label className="flex cursor-pointer items-center gap-2 rounded-md border border-graphite-300 px-3 py-1.5 text-sm font-semibold has-[:checked]:border-copper-600 has-[:checked]:bg-copper-50">
           <input type="radio" value="some" className="size-4 accent-copper-600" {...register(`items.${index}.ship`)} disabled={wo.serials.length === 0} />

@@ -10,7 +10,8 @@ import { Alert } from '../../components/Alert';
 import { Button } from '../../components/Button';
 import { Loading, Panel } from '../../components/Panel';
 import { errorMessage, isApiError } from '../../lib/api';
-import { formatDateTime, formatDay, plural } from '../../lib/format';
+import { formatDateTime, formatDay, pieces, plural } from '../../lib/format';
+import { LineName } from '../../components/LineName';
 import { useCurrentUser, useUnits } from '../../lib/session';
 import { formatNumber, fromMetres, type LengthUnit } from '../../lib/units';
 import { AddressBlock } from '../customers';
@@ -55,10 +56,9 @@ function Items({ s }: { s: ShipmentRecord }) {
                 </td>
                 <td className="px-2.5 py-1.5">{i.purchaseOrder}</td>
                 <td className="px-2.5 py-1.5">
-                  <span className="text-graphite-500">{i.lineNo}.</span> {i.lineTitle}
-                  {i.customerPartNumber && <span className="block text-xs text-graphite-600">part {i.customerPartNumber}</span>}
+                  <LineName line={i} />
                 </td>
-                <td className="tabular px-2.5 py-1.5 text-right font-semibold whitespace-nowrap">{i.quantity.toLocaleString('en-US')}&nbsp;pcs</td>
+                <td className="tabular px-2.5 py-1.5 text-right font-semibold whitespace-nowrap">{pieces(i.quantity)}</td>
                 <td className="px-2.5 py-1.5">
                   <Serials serials={i.serials} show={10} />
                 </td>
@@ -170,7 +170,7 @@ export function ShipmentPage() {
               {s.trackingNumber || 'none'}
             </span>
           </Fact>
-          <Fact label="Units">{s.units.toLocaleString('en-US')}&nbsp;pcs</Fact>
+          <Fact label="Units">{pieces(s.units)}</Fact>
           <Fact label="Recorded">{`${formatDateTime(s.createdAt)}${s.createdBy ? ` by ${s.createdBy.name}` : ''}`}</Fact>
         </dl>
       </header>

@@ -12,7 +12,7 @@ import { Button, buttonClass } from '../../components/Button';
 import { DataTable } from '../../components/DataTable';
 import { Loading, PageHeader } from '../../components/Panel';
 import { errorMessage } from '../../lib/api';
-import { addDaysIso, formatDay, todayIso } from '../../lib/format';
+import { addDaysIso, formatDay, pieces, todayIso } from '../../lib/format';
 import { useCurrentUser } from '../../lib/session';
 import { shipmentsQuery, type ShipmentListFilter } from './api';
 
@@ -59,7 +59,7 @@ export function ShipmentsPage() {
       col.accessor('units', {
         header: 'Units',
         meta: { align: 'right', label: 'Units (pcs)' },
-        cell: (c) => <span className="whitespace-nowrap">{c.getValue().toLocaleString('en-US')}&nbsp;pcs</span>,
+        cell: (c) => <span className="whitespace-nowrap">{pieces(c.getValue())}</span>,
       }),
       col.accessor('packages', { header: 'Packages', meta: { align: 'right' } }),
     ],

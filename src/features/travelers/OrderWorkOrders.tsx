@@ -4,7 +4,7 @@ import { PRIORITY_LABELS, workOrderListResponse, type Priority } from '../../con
 import { Alert } from '../../components/Alert';
 import { Loading, Panel } from '../../components/Panel';
 import { api, errorMessage } from '../../lib/api';
-import { formatDay } from '../../lib/format';
+import { formatDay, pieces } from '../../lib/format';
 import { useCurrentUser } from '../../lib/session';
 import { PrintTravelers } from './PrintTravelers';
 
@@ -42,7 +42,7 @@ export function OrderWorkOrders({ orderId }: { orderId: number }) {
               <td className="py-1.5 pr-3">
                 {w.line.lineNo}. {w.line.title}
               </td>
-              <td className="py-1.5 pr-3 text-right tabular-nums">{w.quantity}&nbsp;pcs</td>
+              <td className="py-1.5 pr-3 text-right tabular-nums">{pieces(w.quantity)}</td>
               <td className="py-1.5 pr-3">{STAGE_LABELS[w.stage]}</td>
               <td className="py-1.5 pr-3">{PRIORITY_LABELS[w.priority as Priority] ?? w.priority}</td>
               <td className="py-1.5 pr-3">{formatDay(w.dueDate)}</td>
