@@ -7,7 +7,12 @@ const deps = createDeps(config());
 const running = startWorkers(deps, { log: (m) => console.log(`worker: ${m}`) });
 console.log('Spoolwright worker started (queues: mail, travelers, documents; outbox dispatcher on)');
 
+/** Stopping: running jobs finish first (BullMQ's close waits for them), then the connections close. */
+let stopping = false;
 async function shutdown() {
+  if (stopping) return;
+  stopping = true;
+  console.log('worker: stopping after the running jobs finish');
   await running.close();
   await deps.close();
   process.exit(0);

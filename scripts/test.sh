@@ -4,7 +4,7 @@
 set -uo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/ensure-deps.sh --test || exit 1
-already_up=$(npx tsx scripts/services.ts status | grep -c ' up$' || true)
+already_up=$(npx tsx scripts/services.ts status | grep -cE ' up( |$)' || true)
 npx tsx scripts/services.ts up || exit 1
 npx tsx scripts/build-client.ts || exit 1
 export NODE_ENV=test

@@ -3,14 +3,33 @@ import { z } from 'zod';
 /**
  * Local stand-ins for the hosted services, on loopback and the project's own ports.
  * `scripts/services.ts` starts these; production overrides every one through the environment.
+ *
+ * The local services' addresses, every port moved by `offset`: `SPOOLWRIGHT_PORT_OFFSET`
+ * (default 0) with `SPOOLWRIGHT_DATA_DIR` (default `.data`) runs a second, independent set of
+ * local services on one machine (the crash test runs one).
  */
-export const LOCAL = {
-  postgres: { host: '127.0.0.1', port: 55432, user: 'spoolwright', password: 'spoolwright' },
-  redis: { host: '127.0.0.1', port: 56379 },
-  smtp: { host: '127.0.0.1', port: 1025 },
-  mailViewer: { host: '127.0.0.1', port: 1080 },
-  s3: { host: '127.0.0.1', port: 4568, accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
-} as const;
+export function localServices(offset = 0) {
+  return {
+    postgres: { host: '127.0.0.1', port: 55432 + offset, user: 'spoolwright', password: 'spoolwright' },
+    redis: { host: '127.0.0.1', port: 56379 + offset },
+    smtp: { host: '127.0.0.1', port: 1025 + offset },
+    mailViewer: { host: '127.0.0.1', port: 1080 + offset },
+    s3: { host: '127.0.0.1', port: 4568 + offset, accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
+  } as const;
+}
+
+export const PORT_OFFSET_MAX = 2000;
+const portOffset = (() => {
+  const raw = process.env.SPOOLWRIGHT_PORT_OFFSET;
+  if (raw === undefined || raw === '') return 0;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 0 || n > PORT_OFFSET_MAX) {
+    throw new Error(`Invalid configuration:\n  SPOOLWRIGHT_PORT_OFFSET: a whole number from 0 to ${PORT_OFFSET_MAX} (got ${JSON.stringify(raw)})`);
+  }
+  return n;
+})();
+
+export const LOCAL = localServices(portOffset);
 
 const isTest = process.env.NODE_ENV === 'test';
 const suffix = isTest ? '_test' : '';

@@ -32,9 +32,37 @@ server.on('error', (e) => {
   process.exit(1);
 });
 
+/**
+ * Stopping (SIGTERM from `npm run stop` or a process manager, or Ctrl-C): take no new
+ * connections, let the requests in flight finish (live board streams are ended, their clients
+ * reconnect elsewhere), then close the connections to the services. Anything still open after
+ * the grace period is cut.
+ */
+const GRACE_MS = 20_000;
+const inFlight = new Set<import('node:http').ServerResponse>();
+server.on('request', (_req, res) => {
+  inFlight.add(res);
+  res.once('close', () => inFlight.delete(res));
+});
+const isStream = (res: import('node:http').ServerResponse) => String(res.getHeader('content-type') ?? '').startsWith('text/event-stream');
+
+let stopping = false;
 function shutdown() {
-  server.close(() => void deps.close().then(() => process.exit(0)));
-  setTimeout(() => process.exit(0), 5_000).unref();
+  if (stopping) return;
+  stopping = true;
+  server.close(() => void deps.close().finally(() => process.exit(0)));
+  server.closeIdleConnections();
+  for (const res of inFlight) if (isStream(res)) res.end();
+  const until = Date.now() + GRACE_MS;
+  const poll = setInterval(() => {
+    server.closeIdleConnections();
+    const busy = [...inFlight].filter((r) => !isStream(r)).length;
+    if (busy === 0 || Date.now() > until) {
+      clearInterval(poll);
+      server.closeAllConnections();
+    }
+  }, 100);
+  setTimeout(() => process.exit(0), GRACE_MS + 5_000).unref();
 }
 process.on('SIGINT', shutdown);
 process.on('SIGTERM', shutdown);

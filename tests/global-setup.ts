@@ -1,6 +1,6 @@
 import { loadConfig } from '../server/config';
 import { createDb } from '../server/db/client';
-import { dropEverything, ensureDatabase, runMigrations } from '../server/db/migrate';
+import { dropEverything, ensureDatabase, relaxCommitDurabilityForTests, runMigrations } from '../server/db/migrate';
 import { seed } from '../server/seed/demo';
 import { createStorage } from '../server/infra/storage';
 import { Redis } from 'ioredis';
@@ -13,6 +13,9 @@ export default async function setup() {
     throw new Error(`Refusing to reset ${config.databaseUrl}: tests run against a database whose name ends in _test`);
   }
   await ensureDatabase(config.databaseUrl);
+  // The server is durable (scripts/services.ts); only this throw-away database trades the wait
+  // for each commit's disk flush for speed.
+  await relaxCommitDurabilityForTests(config.databaseUrl);
   const { db, pool } = createDb(config.databaseUrl, 2);
   try {
     await dropEverything(pool);
