@@ -1,6 +1,24 @@
 import type { CoilSolveRequest, CoilSpec } from '../../src/contracts/coil';
 import type { CoilProfileResponse, CoilReferenceResponse } from '../../src/contracts/coil';
-import { CONDUCTORS, CoilSpecError, designCoil, THERMAL_CLASSES, fieldAlongAxis, pullAgainstGap, solveCoil, sweepWireSizes, warmUpCurve } from '../coil';
+import {
+  CONDUCTORS,
+  CORE_MATERIALS,
+  MU0,
+  CoilSpecError,
+  DEFAULT_SUPPLY_TOLERANCE,
+  HOT_SPOT_ALLOWANCES,
+  HOT_SPOT_SOURCE,
+  SUPPLY_TOLERANCE_SOURCE,
+  THERMAL_CLASSES,
+  bhCurvePoints,
+  designCoil,
+  fieldAlongAxis,
+  pullAgainstGap,
+  solveCircuit,
+  solveCoil,
+  sweepWireSizes,
+  warmUpCurve,
+} from '../coil';
 import { badRequest } from '../http/errors';
 
 /** Runs the engine; a spec it refuses becomes 400 `validation` naming the field. */
@@ -19,7 +37,8 @@ export const solve = (req: CoilSolveRequest) => run(() => solveCoil(req.spec, re
 
 /**
  * The curves for a build sheet's pictures: field along the axis (to twice the winding length each
- * side), pull from zero gap to three times the design gap, and the warm-up to steady temperature.
+ * side), pull from zero gap to three times the design gap, the warm-up to steady temperature, and
+ * with a core the iron's B–H curve with the corners' operating points.
  */
 export const profile = (spec: CoilSpec): CoilProfileResponse =>
   run(() => {
@@ -34,8 +53,25 @@ export const profile = (spec: CoilSpec): CoilProfileResponse =>
       const curve = pullAgainstGap(spec, gaps);
       pull = { caution: curve.caution, points: curve.points };
     }
-    return { field, pull, warmUp: warmUpCurve(sheet, 81) };
+    let bh: CoilProfileResponse['bh'] = null;
+    if (m) {
+      const points = (['low', 'nominal', 'high'] as const).map((corner) => {
+        const p = solveCircuit(sheet.corners[corner].ampereTurns, m);
+        return { corner, H: p.fieldStrength, B: p.fluxDensity };
+      });
+      // Room to the right of the highest operating point, and past the knee.
+      const kneeH = m.bhCurve ? (m.bhCurve.find(([, b]) => b >= m.saturationFluxDensity)?.[0] ?? m.bhCurve[m.bhCurve.length - 1][0]) : m.saturationFluxDensity / (MU0 * m.relativePermeability);
+      const hMax = Math.max(...points.map((p) => p.H), kneeH) * 1.6 || 1;
+      bh = { model: m.bhCurve ? 'curve' : 'linear', knee: m.saturationFluxDensity, curve: bhCurvePoints(m, hMax), points };
+    }
+    return { field, pull, warmUp: warmUpCurve(sheet, 81), bh };
   });
 
 /** The engine's constants, for the engineer's reference panel (one source: server/coil). */
-export const reference = (): CoilReferenceResponse => ({ conductors: CONDUCTORS, thermalClasses: [...THERMAL_CLASSES] });
+export const reference = (): CoilReferenceResponse => ({
+  conductors: CONDUCTORS,
+  thermalClasses: [...THERMAL_CLASSES],
+  hotSpot: { allowances: { ...HOT_SPOT_ALLOWANCES }, source: HOT_SPOT_SOURCE },
+  supplyTolerance: { ...DEFAULT_SUPPLY_TOLERANCE, source: SUPPLY_TOLERANCE_SOURCE },
+  coreMaterials: CORE_MATERIALS.map((m) => ({ ...m })),
+});

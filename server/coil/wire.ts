@@ -341,6 +341,16 @@ function resistanceToleranceOf(size: WireSize, bare: number): MagnetWire['resist
   };
 }
 
+/**
+ * Insulated wire mass per metre, kg/m: conductor density × bare area plus enamel density × the
+ * annulus up to the overall diameter. For results computed before the engine counted the enamel.
+ */
+export function insulatedMassPerMetre(conductor: Conductor, bareDiameter: number, overallDiameter: number): number {
+  const area = (Math.PI / 4) * bareDiameter * bareDiameter;
+  const enamel = (Math.PI / 4) * Math.max(0, overallDiameter * overallDiameter - bareDiameter * bareDiameter);
+  return CONDUCTORS[conductor].density * area + ENAMEL_DENSITY * enamel;
+}
+
 /** magnetWire without validation, for the engine's own loops. */
 export function makeWire(
   size: WireSize,

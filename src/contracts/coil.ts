@@ -258,8 +258,20 @@ export const coilProfileResponse = z.object({
       points: z.array(z.object({ gap: z.number(), fluxDensity: z.number(), force: z.number(), saturated: z.boolean() })),
     })
     .nullable(),
-  /** Winding temperature from switch-on to steady state: t in s, T in °C. */
+  /** Winding temperature from switch-on to steady state (duty-averaged power, resistance feedback): t in s, T in °C. */
   warmUp: z.array(z.object({ t: z.number(), T: z.number() })),
+  /**
+   * The iron's B–H picture (only with a magnetic circuit): the curve (or the linear model with its
+   * cap) and the operating points of the low, nominal and high corners; H in A/m, B in T.
+   */
+  bh: z
+    .object({
+      model: z.enum(['curve', 'linear']),
+      knee: z.number(),
+      curve: z.array(z.object({ H: z.number(), B: z.number() })),
+      points: z.array(z.object({ corner: z.enum(['low', 'nominal', 'high']), H: z.number(), B: z.number() })),
+    })
+    .nullable(),
 });
 export type CoilProfileResponse = z.infer<typeof coilProfileResponse>;
 
@@ -275,5 +287,20 @@ const conductorReference = z.object({
 export const coilReferenceResponse = z.object({
   conductors: z.object({ copper: conductorReference, aluminium: conductorReference }),
   thermalClasses: z.array(z.number()),
+  /** Hot-spot allowance per thermal class, K, with its source. */
+  hotSpot: z.object({ allowances: z.record(z.string(), z.number()), source: z.string() }),
+  /** The engine's default supply band (fractions of rated) and its source. */
+  supplyTolerance: z.object({ low: z.number(), high: z.number(), source: z.string() }),
+  /** The core-material library: linear μr, saturation or knee, and a B–H curve where there is one. */
+  coreMaterials: z.array(
+    z.object({
+      id: z.string(),
+      name: z.string(),
+      relativePermeability: z.number(),
+      saturationFluxDensity: z.number(),
+      bhCurve: z.array(z.tuple([z.number(), z.number()])).optional(),
+      source: z.string(),
+    }),
+  ),
 });
 export type CoilReferenceResponse = z.infer<typeof coilReferenceResponse>;
