@@ -5,7 +5,8 @@
  */
 import { eq, inArray } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildSheets, spoolReservations, workOrders } from '../../server/db/schema';
+import { buildSheets, customers, orderLines, orders, spoolReservations, workOrders } from '../../server/db/schema';
+import { DEMO_COMPANIES } from '../../server/seed/orders';
 import { csrf, testApp } from '../helpers/app';
 import { acknowledgedOrder, coilSpec, draftSheet, receiveSpool } from '../helpers/build-sheets';
 import { newCompany } from '../helpers/orders';
@@ -89,5 +90,25 @@ describe('releasing reserves the insulated wire mass', () => {
     const reserved = await db().select().from(spoolReservations).where(inArray(spoolReservations.workOrderId, wos.map((w) => w.id)));
     const total = reserved.reduce((a, x) => a + x.mass, 0);
     expect(total).toBeCloseTo(perUnit * 12 * (1 + res.body.stock.scrapAllowancePercent / 100), 6);
+  });
+});
+
+describe('the demo shop', () => {
+  it('is drawn with engine 2, and none of its sheets carries a warning', async () => {
+    const rows = await db()
+      .select({ engine: buildSheets.engineVersion, result: buildSheets.result, title: orderLines.title })
+      .from(buildSheets)
+      .innerJoin(orderLines, eq(orderLines.id, buildSheets.lineId))
+      .innerJoin(orders, eq(orders.id, orderLines.orderId))
+      .innerJoin(customers, eq(customers.id, orders.customerId))
+      .where(inArray(customers.name, DEMO_COMPANIES.map((c) => c.name)));
+    expect(rows.length).toBeGreaterThan(20);
+    for (const r of rows) {
+      expect(r.engine, r.title).toMatch(/^2\./);
+      expect(r.result.warnings.map((w) => w.code), r.title).toEqual([]);
+      // within its class less the hot-spot allowance at the high corner, and through its duty cycle
+      expect(r.result.corners.high.windingTemperature, r.title).toBeLessThanOrEqual(r.result.duty.limitTemperature);
+      expect(r.result.duty.peakTemperature, r.title).toBeLessThanOrEqual(r.result.duty.limitTemperature);
+    }
   });
 });
