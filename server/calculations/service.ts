@@ -3,6 +3,7 @@ import type { CoilProfileResponse, CoilReferenceResponse } from '../../src/contr
 import {
   CONDUCTORS,
   CORE_MATERIALS,
+  ENGINE_VERSION,
   MU0,
   CoilSpecError,
   DEFAULT_SUPPLY_TOLERANCE,
@@ -11,6 +12,7 @@ import {
   SUPPLY_TOLERANCE_SOURCE,
   THERMAL_CLASSES,
   bhCurvePoints,
+  curveFieldStrength,
   designCoil,
   fieldAlongAxis,
   pullAgainstGap,
@@ -59,9 +61,9 @@ export const profile = (spec: CoilSpec): CoilProfileResponse =>
         const p = solveCircuit(sheet.corners[corner].ampereTurns, m);
         return { corner, H: p.fieldStrength, B: p.fluxDensity };
       });
-      // Room to the right of the highest operating point, and past the knee.
-      const kneeH = m.bhCurve ? (m.bhCurve.find(([, b]) => b >= m.saturationFluxDensity)?.[0] ?? m.bhCurve[m.bhCurve.length - 1][0]) : m.saturationFluxDensity / (MU0 * m.relativePermeability);
-      const hMax = Math.max(...points.map((p) => p.H), kneeH) * 1.6 || 1;
+      // Wide enough for the operating points with room beside them, and for the knee.
+      const kneeH = m.bhCurve ? curveFieldStrength(m.bhCurve, m.saturationFluxDensity) : m.saturationFluxDensity / (MU0 * m.relativePermeability);
+      const hMax = Math.max(2.5 * Math.max(...points.map((p) => p.H)), 1.15 * kneeH) || 1;
       bh = { model: m.bhCurve ? 'curve' : 'linear', knee: m.saturationFluxDensity, curve: bhCurvePoints(m, hMax), points };
     }
     return { field, pull, warmUp: warmUpCurve(sheet, 81), bh };
@@ -69,6 +71,7 @@ export const profile = (spec: CoilSpec): CoilProfileResponse =>
 
 /** The engine's constants, for the engineer's reference panel (one source: server/coil). */
 export const reference = (): CoilReferenceResponse => ({
+  engineVersion: ENGINE_VERSION,
   conductors: CONDUCTORS,
   thermalClasses: [...THERMAL_CLASSES],
   hotSpot: { allowances: { ...HOT_SPOT_ALLOWANCES }, source: HOT_SPOT_SOURCE },

@@ -285,6 +285,8 @@ const conductorReference = z.object({
   sources: z.record(z.string(), z.string()),
 });
 export const coilReferenceResponse = z.object({
+  /** The engine that computes new drafts now. */
+  engineVersion: z.string(),
   conductors: z.object({ copper: conductorReference, aluminium: conductorReference }),
   thermalClasses: z.array(z.number()),
   /** Hot-spot allowance per thermal class, K, with its source. */
