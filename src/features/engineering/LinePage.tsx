@@ -186,6 +186,8 @@ function Desk({ line }: { line: OrderLineDetail }) {
     return parsed.success ? parsed.data : null;
   }, [unsaved, newest]);
   const sheet = record ?? shown?.sheet ?? null;
+  /** The newest version was computed by an earlier engine: saving the same choices recomputes it. */
+  const olderEngine = !unsaved && !!newest && !!currentEngine && newest.engineVersion !== currentEngine;
   const sheetSpec = record && newest ? newest.spec : (shown?.spec ?? null);
 
   return (
@@ -309,11 +311,22 @@ function Desk({ line }: { line: OrderLineDetail }) {
                 )}
                 {save.isError && !saveErrors && <Alert kind="fault" title="Not saved">{errorMessage(save.error)}</Alert>}
                 <div className="flex flex-wrap items-center gap-2">
-                  <Button variant={unsaved ? 'primary' : 'secondary'} onClick={onSave} disabled={!spec || !unsaved || calculating || !line.can.draft} busy={save.isPending}>
+                  <Button
+                    variant={unsaved || olderEngine ? 'primary' : 'secondary'}
+                    onClick={onSave}
+                    disabled={!spec || !(unsaved || olderEngine) || calculating || !line.can.draft}
+                    busy={save.isPending}
+                  >
                     Save as draft version {(line.sheets[0]?.version ?? 0) + 1}
                   </Button>
                   <span className="text-sm text-graphite-600">
-                    {!line.can.draft ? 'This order no longer takes new versions.' : unsaved ? 'The form differs from every saved version’s newest.' : `Version ${newest?.version} is what the form shows.`}
+                    {!line.can.draft
+                      ? 'This order no longer takes new versions.'
+                      : unsaved
+                        ? 'The form differs from every saved version’s newest.'
+                        : olderEngine
+                          ? `Version ${newest?.version} was computed by engine ${newest?.engineVersion}: save it again to compute it with engine ${currentEngine} and see what changes.`
+                          : `Version ${newest?.version} is what the form shows.`}
                   </span>
                 </div>
               </div>

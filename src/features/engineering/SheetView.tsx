@@ -133,7 +133,7 @@ function CornersTable({ sheet, spec, u }: { sheet: EngineSheet; spec: CoilSpec; 
                 <tr key={name} className="border-b border-graphite-100 text-right" data-corner={name.toLowerCase()}>
                   <th scope="row" className="py-1 pr-2 text-left font-semibold" title={what}>
                     {name}
-                    <span className="block text-xs font-normal text-graphite-500">{what}</span>
+                    <span className="hidden text-xs font-normal text-graphite-500 2xl:block">{what}</span>
                   </th>
                   <td className="tabular py-1 pr-2">{supplyOf(spec, k.supply)}</td>
                   <td className="tabular py-1 pr-2">{u.temperature(k.ambient, 0)}</td>
@@ -153,6 +153,7 @@ function CornersTable({ sheet, spec, u }: { sheet: EngineSheet; spec: CoilSpec; 
         </table>
       </div>
       <p className="mt-1 text-xs text-graphite-500">
+        Low: the pull-in worst case (low supply, winding hot at the highest ambient). High: the heating worst case (high supply at the highest ambient).
         Supply band {formatNumber((spec.supplyTolerance?.low ?? 0.85) * 100, 0)} – {formatNumber((spec.supplyTolerance?.high ?? 1.1) * 100, 0)}&nbsp;% of rated
         {spec.supplyTolerance ? '' : ' (the usual band for control supplies)'}; highest ambient {u.temperature(spec.ambientMax ?? spec.ambient, 0)}. A line’s
         target is met at the low corner; the class is judged at the high corner.
