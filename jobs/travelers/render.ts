@@ -2,8 +2,10 @@
  * The traveler: the paper that follows a work order around the shop. One or two pages, drawn
  * with pdfkit in the shop's look: the work order number as text, as a Code 128 barcode a
  * keyboard-wedge scanner reads back as exactly the number, and as a QR code of its page; the job;
- * the build sheet's essentials in the user's units and in SI; wire to pull; a sign-off row per
- * stage; a test table to fill in by hand; and the cautions.
+ * the build sheet's essentials in the user's units and in SI; the operating corners, the duty,
+ * the switch-off and the resistance band (engine 2 sheets); the iron's B–H picture with its
+ * operating points when there is a core; wire to pull; a sign-off row per stage; a test table to
+ * fill in by hand; and the cautions (the engine's own for this coil, and the shop's).
  */
 import bwipjs from 'bwip-js/node';
 import type { UnitPreferences } from '../../src/contracts/auth';
@@ -14,8 +16,9 @@ import {
   formatTemperatureDifference,
   UNIT_SPACE,
 } from '../../src/lib/units';
-import type { BuildSheet, CoilSpec } from '../../server/coil/types';
-import { ACCENT, BAND, createCanvas, MUTED, RULE } from '../pdf/canvas';
+import { bhCurvePoints, curveFieldStrength, MU0 } from '../../server/coil';
+import type { BuildSheet, CoilSpec, MagneticCircuit } from '../../server/coil/types';
+import { ACCENT, BAND, createCanvas, INK, MUTED, RULE, type Canvas } from '../pdf/canvas';
 
 export type TravelerData = {
   shopName: string;
@@ -156,6 +159,44 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
     }
   }
 
+  // ── Corners, duty, switch-off (sheets computed by engine 2) ─────────────────────────────
+  const T = (c: number) => formatTemperature(c, u.temperatureUnit, 0);
+  const supply = (v: number) => (spec.drive.kind === 'voltage' ? si(v, 'V', 1) : si(v, 'A', 3));
+  if (r.corners) {
+    sectionTitle('Operating corners — target met at low, class judged at high');
+    const withPull = r.corners.nominal.pullForce !== undefined;
+    const corner = (name: string, k: BuildSheet['corners']['low']) => [
+      name,
+      supply(k.supply),
+      T(k.ambient),
+      k.runaway ? 'runaway' : T(k.windingTemperature),
+      eng(k.resistance, 'Ω'),
+      eng(k.current, 'A'),
+      `${formatNumber(k.ampereTurns, 0)}`,
+      ...(withPull ? [eng(k.pullForce, 'N')] : []),
+    ];
+    const headers = ['Corner', 'Supply', 'Ambient', 'Winding', 'R', 'Current', 'A·turns', ...(withPull ? ['Pull'] : [])];
+    const rest = (width - 80) / (headers.length - 1);
+    c.table(headers, [80, ...headers.slice(1).map(() => rest)], [corner('Low', r.corners.low), corner('Nominal', r.corners.nominal), corner('High', r.corners.high)], { bold: [0] });
+  }
+  if (r.duty || r.switchOff || r.resistanceBand) {
+    const pairs: [string, string][] = [];
+    if (r.resistanceBand) pairs.push(['R at 20 °C acceptance (no tolerance stated)', `${eng(r.resistanceBand.min, 'Ω')} … ${eng(r.resistanceBand.max, 'Ω')}`]);
+    if (r.duty) {
+      pairs.push(['Duty peak at the high corner', `${T(r.duty.peakTemperature)} (limit ${T(r.duty.limitTemperature)})`]);
+      pairs.push(['Longest on-time from cold', r.duty.maxOnTimeFromCold === null ? 'unlimited' : eng(r.duty.maxOnTimeFromCold, 's')]);
+    }
+    if (r.switchOff) {
+      const so = r.switchOff;
+      pairs.push(['Suppression', `${so.kind === 'diode-zener' ? 'diode and Zener' : so.kind}${so.assumed ? ' (assumed)' : ''}`]);
+      pairs.push(['Stored energy · peak across the switch', `${eng(so.storedEnergy, 'J')} · ${so.peakVoltage === null ? 'unlimited (arcs)' : si(so.peakVoltage, 'V', 0)}`]);
+      pairs.push(['Release time to 10 %', so.decayTime === null ? '—' : eng(so.decayTime, 's')]);
+    }
+    sectionTitle('Band, duty and switch-off');
+    c.kv(pairs, 3);
+  }
+  if (spec.magneticCircuit && r.gapFluxDensity !== undefined) bhPicture(c, spec.magneticCircuit, r);
+
   // ── Wire reserved ────────────────────────────────────────────────────────────────────────
   sectionTitle('Wire reserved from stock');
   if (!d.spoolLots.length) write('No spool is reserved for this work order: ask the engineer before winding.', { size: 9, x: left, y: doc.y, width });
@@ -200,9 +241,62 @@ export async function renderTraveler(d: TravelerData): Promise<Buffer> {
   grid(['Serial', 'R measured (Ω)', 'at °C', 'Hi-pot V / s / leakage', 'IR (MΩ)', 'Pass / fail', 'Initials'], [70, 80, 50, 120, 60, 60, width - 440], testRows, () => '');
 
   // ── Cautions, and the footer on every page ───────────────────────────────────────────────
-  c.cautions(CAUTIONS);
+  // The engine's cautions for this coil (switch-off, stored charge, hot surface, field, pinching,
+  // lifting) with the shop's hi-pot caution and the word on local codes; a sheet of engine 1 keeps
+  // the shop's general list.
+  const own = r.cautions ?? [];
+  const has = (code: string) => own.some((x) => x.code === code);
+  c.cautions(
+    own.length
+      ? [CAUTIONS[0], ...own.map((x) => x.message), ...(has('hot-surface') ? [] : [CAUTIONS[1]]), ...(has('lifting') ? [] : [CAUTIONS[2]]), CAUTIONS[3]]
+      : CAUTIONS,
+  );
   return c.finish(
     (page, pages) =>
       `${d.workOrder.number} · build sheet v${d.sheet.version} · engine ${d.sheet.engineVersion} · printed ${d.generatedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC by ${d.generatedBy} · page ${page} of ${pages}`,
   );
+}
+
+/**
+ * The iron's B–H picture on the traveler: the curve (or the linear model with its cap) and the
+ * stored operating points of the corners, H read off the stored B on the same curve.
+ */
+function bhPicture(c: Canvas, m: MagneticCircuit, r: BuildSheet) {
+  const { doc, left, write, ensureSpace, sectionTitle } = c;
+  const hOf = (b: number) => (m.bhCurve ? curveFieldStrength(m.bhCurve, b) : b / (MU0 * m.relativePermeability));
+  const points: { name: string; B: number }[] = r.corners
+    ? [
+        { name: 'low', B: r.corners.low.gapFluxDensity ?? 0 },
+        { name: 'nominal', B: r.corners.nominal.gapFluxDensity ?? 0 },
+        { name: 'high', B: r.corners.high.gapFluxDensity ?? 0 },
+      ]
+    : [{ name: 'operating point', B: r.gapFluxDensity ?? 0 }];
+  const pts = points.map((p) => ({ ...p, H: hOf(Math.min(p.B, m.bhCurve ? Infinity : m.saturationFluxDensity)) }));
+  const kneeH = hOf(m.saturationFluxDensity);
+  const hMax = Math.max(2.5 * Math.max(...pts.map((p) => p.H)), 1.15 * kneeH) || 1;
+  const curve = bhCurvePoints(m, hMax);
+  const bMax = Math.max(...curve.map((p) => p.B), m.saturationFluxDensity) * 1.1;
+  sectionTitle(`Iron: ${m.bhCurve ? 'B–H curve' : 'linear µr capped at saturation'} and operating points`, 170);
+  ensureSpace(160);
+  const x0 = left + 40;
+  const y0 = doc.y + 6;
+  const w = 300;
+  const h = 120;
+  const sx = (H: number) => x0 + (H / hMax) * w;
+  const sy = (B: number) => y0 + h - (B / bMax) * h;
+  doc.rect(x0, y0, w, h).lineWidth(0.6).strokeColor(RULE).stroke();
+  curve.forEach((p, i) => (i ? doc.lineTo(sx(p.H), sy(p.B)) : doc.moveTo(sx(p.H), sy(p.B))));
+  doc.lineWidth(1.6).strokeColor(ACCENT).stroke();
+  doc.moveTo(x0, sy(m.saturationFluxDensity)).lineTo(x0 + w, sy(m.saturationFluxDensity)).dash(4, { space: 3 }).lineWidth(0.8).strokeColor('#a8261f').stroke().undash();
+  write(`${m.bhCurve ? 'knee' : 'saturation'} ${formatNumber(m.saturationFluxDensity, 2)} T`, { size: 7.5, color: '#a8261f', x: x0 + w + 4, y: sy(m.saturationFluxDensity) - 4 });
+  pts.forEach((p, i) => {
+    doc.circle(sx(p.H), sy(p.B), 3).lineWidth(1.2).strokeColor(INK).stroke();
+    write(p.name, { size: 7.5, x: sx(p.H) + [5, 6, -40][i % 3], y: sy(p.B) + [3, -4, -11][i % 3] });
+  });
+  write(`${formatNumber(bMax, 1)} T`, { size: 7, color: MUTED, x: left, y: y0 - 3 });
+  write('0', { size: 7, color: MUTED, x: x0 - 8, y: y0 + h - 4 });
+  write(`H in the iron, 0 … ${formatNumber(hMax >= 1e4 ? hMax / 1000 : hMax, 0)} ${hMax >= 1e4 ? 'kA/m' : 'A/m'}`, { size: 7.5, color: MUTED, x: x0, y: y0 + h + 4 });
+  const text = pts.map((p) => `${p.name} ${formatNumber(p.B, 3)} T at ${formatNumber(p.H, 0)} A/m`).join(' · ');
+  write(text, { size: 8, x: x0 + w + 4, y: y0 + 20, width: c.width - (x0 - left) - w - 8 });
+  doc.y = y0 + h + 18;
 }

@@ -40,6 +40,12 @@ export async function findSheet(db: Db | Tx, id: number) {
   return row as SheetRow | undefined;
 }
 
+/** One version of a line's sheet. */
+export async function findVersion(db: Db | Tx, lineId: number, version: number) {
+  const [row] = await db.select().from(buildSheets).where(and(eq(buildSheets.lineId, lineId), eq(buildSheets.version, version)));
+  return row as SheetRow | undefined;
+}
+
 /** The sheet row locked for the rest of the transaction: approvals and releases of one sheet queue. */
 export async function lockSheet(tx: Tx, id: number) {
   const [row] = await tx.select().from(buildSheets).where(eq(buildSheets.id, id)).for('update');

@@ -18,7 +18,7 @@ import { ORDER_STATUS_LABELS, type OrderStatus, type Requirement } from '../../s
 import { RELEASED_STAGE } from '../../src/contracts/stages';
 import type { StockCheck } from '../../src/contracts/stock';
 import { PRIORITY_DEFAULT, type WorkOrderCreated } from '../../src/contracts/work-orders';
-import { CoilSpecError, ENGINE_VERSION, MU0, designCoil, type WarningCode } from '../coil';
+import { CoilSpecError, ENGINE_VERSION, MU0, designCoil, insulatedMassPerMetre, type WarningCode } from '../coil';
 import * as customerRepo from '../customers/repository';
 import type { Db, Tx } from '../db/client';
 import { HttpError, badRequest, conflict, notFound, ruleBroken } from '../http/errors';
@@ -29,6 +29,7 @@ import { getReleaseSettings, withShopHeatTransfer } from '../settings/service';
 import * as stockRepo from '../stock/repository';
 import { allocate, freeSpools, stockCheckOf, wireNeeded } from '../stock/service';
 import * as woRepo from '../work-orders/repository';
+import { sheetChanges } from './changes';
 import * as repo from './repository';
 
 // The contract's lists are plain strings; these lines make the compiler hold them to the engine's codes.
@@ -125,7 +126,13 @@ export function requirementToSpec(req: Requirement, choices: StartingChoices = {
 
 const codes = (s: repo.SheetRow) => s.result.warnings.map((w) => w.code);
 
-function toRecord(s: repo.SheetRow, orderId: number, orderStatus: OrderStatus, names: Map<number, string>): BuildSheetRecord {
+function toRecord(
+  s: repo.SheetRow,
+  orderId: number,
+  orderStatus: OrderStatus,
+  names: Map<number, string>,
+  previous: repo.SheetRow | undefined,
+): BuildSheetRecord {
   const who = (id: number | null) => (id !== null && names.has(id) ? { id, name: names.get(id)! } : null);
   const overrideNeededFor = codes(s).filter((c) => NEEDS_OVERRIDE.includes(c));
   const blockedBy = codes(s).filter((c) => BLOCKS_APPROVAL.includes(c));
@@ -155,12 +162,15 @@ function toRecord(s: repo.SheetRow, orderId: number, orderStatus: OrderStatus, n
       approve: s.status === 'draft' && blockedBy.length === 0 && !CLOSED_ORDER.includes(orderStatus),
       release: s.status === 'approved' && RELEASABLE_ORDER.includes(orderStatus),
     },
+    changes: sheetChanges(previous, s),
   };
 }
 
-async function records(db: Db | Tx, sheets: repo.SheetRow[], orderId: number, orderStatus: OrderStatus) {
+/** Records of sheets of one line; `earlier` holds versions to compare with that are not in `sheets`. */
+async function records(db: Db | Tx, sheets: repo.SheetRow[], orderId: number, orderStatus: OrderStatus, earlier: repo.SheetRow[] = []) {
   const names = await orderRepo.userNames(db, sheets.flatMap((s) => [s.draftedBy, s.approvedBy, s.releasedBy]));
-  return sheets.map((s) => toRecord(s, orderId, orderStatus, names));
+  const byVersion = new Map([...earlier, ...sheets].map((s) => [s.version, s]));
+  return sheets.map((s) => toRecord(s, orderId, orderStatus, names, byVersion.get(s.version - 1)));
 }
 
 export async function getBuildSheet(db: Db | Tx, id: number): Promise<BuildSheetRecord> {
@@ -168,7 +178,8 @@ export async function getBuildSheet(db: Db | Tx, id: number): Promise<BuildSheet
   if (!sheet) throw notFound('No such build sheet');
   const line = await repo.findLine(db, sheet.lineId);
   if (!line) throw notFound('No such build sheet');
-  return (await records(db, [sheet], line.order.id, line.order.status))[0];
+  const previous = sheet.version > 1 ? await repo.findVersion(db, sheet.lineId, sheet.version - 1) : undefined;
+  return (await records(db, [sheet], line.order.id, line.order.status, previous ? [previous] : []))[0];
 }
 
 /** A line with its order, customer, requirement, every sheet version and the starting spec. */
@@ -307,6 +318,17 @@ const wireKey = (s: repo.SheetRow): stockRepo.WireKey => ({
   insulationGrade: s.spec.insulationGrade,
 });
 
+/**
+ * Wire mass one unit takes from a spool (whose net mass counts the enamel too), kg. Engine 2
+ * results carry it as wireMass; an engine 1 result counted the bare conductor only, so its
+ * insulated mass is worked out from its own wire length and diameters (the record is not changed).
+ */
+export function spoolMassPerUnit(s: repo.SheetRow): number {
+  const r = s.result;
+  if (r.conductorMass !== undefined) return r.wireMass;
+  return r.wireLength * insulatedMassPerMetre(s.spec.conductor, r.wire.bareDiameter, r.wire.overallDiameter);
+}
+
 /** What releasing a sheet would need of its wire against the free stock (before release). */
 export async function stockCheck(db: Db | Tx, id: number): Promise<StockCheck> {
   const sheet = await repo.findSheet(db, id);
@@ -315,7 +337,7 @@ export async function stockCheck(db: Db | Tx, id: number): Promise<StockCheck> {
   if (!line) throw notFound('No such build sheet');
   const { scrapAllowancePercent } = await getReleaseSettings(db);
   const key = wireKey(sheet);
-  return stockCheckOf(key, await freeSpools(db, key), line.line.quantity, sheet.result.wireMass, scrapAllowancePercent);
+  return stockCheckOf(key, await freeSpools(db, key), line.line.quantity, spoolMassPerUnit(sheet), scrapAllowancePercent);
 }
 
 // ── Releasing ───────────────────────────────────────────────────────────────────────────────
@@ -414,7 +436,7 @@ export async function releaseBuildSheet(
     const key = wireKey(sheet);
     await stockRepo.lockSpools(tx, key);
     const spools = await freeSpools(tx, key);
-    const stock = stockCheckOf(key, spools, line.quantity, sheet.result.wireMass, scrapAllowancePercent);
+    const stock = stockCheckOf(key, spools, line.quantity, spoolMassPerUnit(sheet), scrapAllowancePercent);
     const note = input.shortStockNote;
     // A past order's wire was used long ago: the demo seed's history releases reserve none.
     if (stock.short && !history) {
@@ -457,7 +479,7 @@ export async function releaseBuildSheet(
           note: `Released from build sheet v${sheet.version}${stock.short && !history ? ` despite short wire stock: ${note}` : ''}`,
         },
       ]);
-      const takes = history ? [] : allocate(spools, wireNeeded(sheet.result.wireMass, quantity, scrapAllowancePercent));
+      const takes = history ? [] : allocate(spools, wireNeeded(spoolMassPerUnit(sheet), quantity, scrapAllowancePercent));
       await stockRepo.insertReservations(tx, takes.map((t) => ({ spoolId: t.spoolId, workOrderId: wo.id, mass: t.mass })));
       released.push({ id: wo.id, number: wo.number, stage: wo.stage, quantity: wo.quantity, dueDate: wo.dueDate, version: wo.version });
       if (!history) await notifyFloor(tx, { kind: 'release', id: wo.id, number: wo.number, stage: wo.stage, version: wo.version, at: now.toISOString() });

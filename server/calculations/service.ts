@@ -1,6 +1,26 @@
 import type { CoilSolveRequest, CoilSpec } from '../../src/contracts/coil';
 import type { CoilProfileResponse, CoilReferenceResponse } from '../../src/contracts/coil';
-import { CONDUCTORS, CoilSpecError, designCoil, THERMAL_CLASSES, fieldAlongAxis, pullAgainstGap, solveCoil, sweepWireSizes, warmUpCurve } from '../coil';
+import {
+  CONDUCTORS,
+  CORE_MATERIALS,
+  ENGINE_VERSION,
+  MU0,
+  CoilSpecError,
+  DEFAULT_SUPPLY_TOLERANCE,
+  HOT_SPOT_ALLOWANCES,
+  HOT_SPOT_SOURCE,
+  SUPPLY_TOLERANCE_SOURCE,
+  THERMAL_CLASSES,
+  bhCurvePoints,
+  curveFieldStrength,
+  designCoil,
+  fieldAlongAxis,
+  pullAgainstGap,
+  solveCircuit,
+  solveCoil,
+  sweepWireSizes,
+  warmUpCurve,
+} from '../coil';
 import { badRequest } from '../http/errors';
 
 /** Runs the engine; a spec it refuses becomes 400 `validation` naming the field. */
@@ -19,7 +39,8 @@ export const solve = (req: CoilSolveRequest) => run(() => solveCoil(req.spec, re
 
 /**
  * The curves for a build sheet's pictures: field along the axis (to twice the winding length each
- * side), pull from zero gap to three times the design gap, and the warm-up to steady temperature.
+ * side), pull from zero gap to three times the design gap, the warm-up to steady temperature, and
+ * with a core the iron's B–H curve with the corners' operating points.
  */
 export const profile = (spec: CoilSpec): CoilProfileResponse =>
   run(() => {
@@ -34,8 +55,26 @@ export const profile = (spec: CoilSpec): CoilProfileResponse =>
       const curve = pullAgainstGap(spec, gaps);
       pull = { caution: curve.caution, points: curve.points };
     }
-    return { field, pull, warmUp: warmUpCurve(sheet, 81) };
+    let bh: CoilProfileResponse['bh'] = null;
+    if (m) {
+      const points = (['low', 'nominal', 'high'] as const).map((corner) => {
+        const p = solveCircuit(sheet.corners[corner].ampereTurns, m);
+        return { corner, H: p.fieldStrength, B: p.fluxDensity };
+      });
+      // Wide enough for the operating points with room beside them, and for the knee.
+      const kneeH = m.bhCurve ? curveFieldStrength(m.bhCurve, m.saturationFluxDensity) : m.saturationFluxDensity / (MU0 * m.relativePermeability);
+      const hMax = Math.max(2.5 * Math.max(...points.map((p) => p.H)), 1.15 * kneeH) || 1;
+      bh = { model: m.bhCurve ? 'curve' : 'linear', knee: m.saturationFluxDensity, curve: bhCurvePoints(m, hMax), points };
+    }
+    return { field, pull, warmUp: warmUpCurve(sheet, 81), bh };
   });
 
 /** The engine's constants, for the engineer's reference panel (one source: server/coil). */
-export const reference = (): CoilReferenceResponse => ({ conductors: CONDUCTORS, thermalClasses: [...THERMAL_CLASSES] });
+export const reference = (): CoilReferenceResponse => ({
+  engineVersion: ENGINE_VERSION,
+  conductors: CONDUCTORS,
+  thermalClasses: [...THERMAL_CLASSES],
+  hotSpot: { allowances: { ...HOT_SPOT_ALLOWANCES }, source: HOT_SPOT_SOURCE },
+  supplyTolerance: { ...DEFAULT_SUPPLY_TOLERANCE, source: SUPPLY_TOLERANCE_SOURCE },
+  coreMaterials: CORE_MATERIALS.map((m) => ({ ...m })),
+});

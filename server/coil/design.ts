@@ -2,28 +2,40 @@
  * designCoil, sweepWireSizes and solveCoil: from a requirement to a build sheet.
  */
 import {
+  BUILD_SPREAD,
   CONDUCTORS,
   CURRENT_DENSITY_LIMIT,
   DEFAULT_HEAT_TRANSFER_COEFFICIENT,
-  DEFAULT_HOT_SPOT_ALLOWANCE,
-  DEFAULT_RANDOM_FILL_FACTOR,
+  DEFAULT_RANDOM_PACKING,
+  DEFAULT_SUPPLY_TOLERANCE,
+  DIODE_FORWARD_DROP,
   FERROMAGNETIC_SUSCEPTIBILITY_RULE,
+  HEXAGONAL_PACKING,
+  HOT_SPOT_SOURCE,
+  IMPLANT_FIELD_LIMIT,
   PULL_CAUTION,
   RUNAWAY_LIMIT,
+  SUPPLY_TOLERANCE_SOURCE,
   conductorAssumptions,
+  hotSpotAllowance,
 } from './constants';
-import { circuitPoint, circuitReluctance, solenoidCentreField, wheelerInductance } from './magnetics';
-import { steadyTemperature } from './thermal';
+import { circuitInductance, solenoidCentreField, solveCircuit, wheelerInductance, type CircuitSolution } from './magnetics';
+import { heatingLaw, heatingTime, periodicPeakRise, steadyTemperature } from './thermal';
 import { validateSpec, validateTarget } from './validate';
 import { makeWire, standardSizes } from './wire';
 import type {
   Assumption,
   BuildSheet,
+  CoilCaution,
   CoilSpec,
   CoilTarget,
   CoilWarning,
+  Corner,
+  DutyResult,
   MagnetWire,
+  ResistanceBand,
   SolveResult,
+  SwitchOffResult,
   WireSize,
 } from './types';
 
@@ -37,6 +49,8 @@ interface Geometry {
   turnsPerLayer: number;
   layers: number;
   builtDiameter: number;
+  /** Axial length the turns occupy, m. */
+  windingLength: number;
   /** False when not even one turn in one layer fits the bobbin. */
   winds: boolean;
 }
@@ -47,15 +61,25 @@ function orthoTurns(layers: number, tpl: number): number {
   return odd * tpl + (layers - odd) * (tpl - 1);
 }
 
+/** The random-winding packing of a spec and wire: turns per overall-diameter² of window. */
+function packingOf(spec: CoilSpec, wire: MagnetWire): number {
+  if (spec.packingFactor !== undefined) return spec.packingFactor;
+  if (spec.fillFactor !== undefined) {
+    return Math.min(HEXAGONAL_PACKING, (spec.fillFactor * wire.overallDiameter * wire.overallDiameter) / wire.area);
+  }
+  return DEFAULT_RANDOM_PACKING;
+}
+
 /**
- * Winding geometry.
+ * Winding geometry. d is the overall (insulated) diameter throughout.
  * - layer: turns per layer ⌊ℓ / d⌋, layers ⌊(D − Dᵢ) / (2d)⌋, built diameter Dᵢ + 2·layers·d.
  * - orthocyclic: each turn nests in the groove of the layer below, so layers after the first
  *   add √3/2·d of radial build and alternate layers hold one turn fewer.
- * - random: turns = fill factor × window area / bare wire area; a fixed turn count needs a
- *   depth of N·a / (fill × ℓ).
- * With a fixed turn count the layers and built diameter follow; the build may exceed the
- * bobbin (reported by the caller as does-not-fit).
+ * - random: turns = packing × window area / d² (never more than orthocyclic winding gets into the
+ *   same window); a fixed turn count needs a depth of N·d² / (packing × ℓ).
+ * A fixed turn count shorter than one layer lies in one layer and occupies N·d of the traverse.
+ * With a fixed turn count the layers and built diameter follow; the build may exceed the bobbin
+ * (reported by the caller as does-not-fit).
  */
 function windingGeometry(spec: CoilSpec, wire: MagnetWire): Geometry {
   const d = wire.overallDiameter;
@@ -64,21 +88,26 @@ function windingGeometry(spec: CoilSpec, wire: MagnetWire): Geometry {
   const length = spec.bobbin.length;
   const tpl = Math.floor(length / d + EPS);
   const fixed = spec.turns;
-  const none: Geometry = { turns: 0, turnsPerLayer: Math.max(tpl, 0), layers: 0, builtDiameter: di, winds: false };
+  const none: Geometry = { turns: 0, turnsPerLayer: Math.max(tpl, 0), layers: 0, builtDiameter: di, windingLength: length, winds: false };
   if (tpl < 1) return none;
+  if (depth + EPS * d < d) return none;
+  // Less than one layer: one layer, N·d long, whatever the pattern.
+  if (fixed !== undefined && fixed < tpl) {
+    return { turns: fixed, turnsPerLayer: tpl, layers: 1, builtDiameter: di + 2 * d, windingLength: fixed * d, winds: true };
+  }
 
   if (spec.pattern === 'layer') {
     const maxLayers = Math.floor(depth / d + EPS);
-    if (maxLayers < 1) return none;
     const layers = fixed !== undefined ? Math.ceil(fixed / tpl) : maxLayers;
     const turns = fixed !== undefined ? fixed : tpl * layers;
-    return { turns, turnsPerLayer: tpl, layers, builtDiameter: di + 2 * layers * d, winds: true };
+    return { turns, turnsPerLayer: tpl, layers, builtDiameter: di + 2 * layers * d, windingLength: length, winds: true };
   }
 
+  const pitch = SQRT3_2 * d;
+  const orthoMaxLayers = Math.floor((depth - d) / pitch + EPS) + 1;
+  const orthoBuilt = (layers: number) => di + 2 * (d + (layers - 1) * pitch);
+
   if (spec.pattern === 'orthocyclic') {
-    if (depth + EPS * d < d) return none;
-    const pitch = SQRT3_2 * d;
-    const maxLayers = Math.floor((depth - d) / pitch + EPS) + 1;
     let layers: number;
     let turns: number;
     if (fixed !== undefined) {
@@ -92,30 +121,45 @@ function windingGeometry(spec: CoilSpec, wire: MagnetWire): Geometry {
         layers = 2 * pairs + (rest === 0 ? 0 : rest <= tpl ? 1 : 2);
       }
     } else {
-      layers = maxLayers;
+      layers = orthoMaxLayers;
       turns = orthoTurns(layers, tpl);
     }
-    return { turns, turnsPerLayer: tpl, layers, builtDiameter: di + 2 * (d + (layers - 1) * pitch), winds: true };
+    return { turns, turnsPerLayer: tpl, layers, builtDiameter: orthoBuilt(layers), windingLength: length, winds: true };
   }
 
   // random
-  if (depth + EPS * d < d) return none;
-  const fill = spec.fillFactor ?? DEFAULT_RANDOM_FILL_FACTOR;
-  let turns: number;
-  let built: number;
+  const p = packingOf(spec, wire);
+  const d2 = d * d;
   if (fixed !== undefined) {
-    turns = fixed;
-    built = di + (2 * fixed * wire.area) / (fill * length);
-  } else {
-    turns = Math.floor((fill * length * depth) / wire.area + EPS);
-    if (turns < 1) return none;
-    built = di + (2 * turns * wire.area) / (fill * length);
+    const needed = Math.max(d, (fixed * d2) / (p * length));
+    return { turns: fixed, turnsPerLayer: tpl, layers: Math.ceil(fixed / tpl), builtDiameter: di + 2 * needed, windingLength: length, winds: true };
   }
-  return { turns, turnsPerLayer: tpl, layers: Math.ceil(turns / tpl), builtDiameter: built, winds: true };
+  const byPacking = Math.floor((p * length * depth) / d2 + EPS);
+  const orthoMax = orthoTurns(orthoMaxLayers, tpl);
+  if (byPacking >= orthoMax) {
+    // Small windows: whole layers leave gaps the packing figure does not see; orthocyclic is the ceiling.
+    return { turns: orthoMax, turnsPerLayer: tpl, layers: orthoMaxLayers, builtDiameter: orthoBuilt(orthoMaxLayers), windingLength: length, winds: true };
+  }
+  if (byPacking < 1) return none;
+  const built = di + 2 * Math.max(d, (byPacking * d2) / (p * length));
+  return { turns: byPacking, turnsPerLayer: tpl, layers: Math.ceil(byPacking / tpl), builtDiameter: built, windingLength: length, winds: true };
+}
+
+/** Supply band, highest ambient and suppression of a spec with the engine's defaults. */
+function operating(spec: CoilSpec) {
+  const tol = spec.supplyTolerance ?? DEFAULT_SUPPLY_TOLERANCE;
+  return {
+    low: tol.low,
+    high: tol.high,
+    ambientMax: spec.ambientMax ?? spec.ambient,
+    suppression: spec.suppression ?? { kind: 'diode' as const },
+    suppressionAssumed: spec.suppression === undefined,
+  };
 }
 
 /** The constants and rules behind a spec's build sheets, with sources (frozen, shared by a sweep). */
 function specAssumptions(spec: CoilSpec): readonly Assumption[] {
+  const op = operating(spec);
   const list: Assumption[] = [...conductorAssumptions(spec.conductor)];
   list.push(
     spec.heatTransferCoefficient !== undefined
@@ -128,13 +172,49 @@ function specAssumptions(spec: CoilSpec): readonly Assumption[] {
         },
     spec.hotSpotAllowance !== undefined
       ? { name: 'hot-spot allowance', value: spec.hotSpotAllowance, unit: 'K', source: 'given in the spec' }
-      : {
-          name: 'hot-spot allowance',
-          value: DEFAULT_HOT_SPOT_ALLOWANCE,
-          unit: 'K',
-          source: 'common practice, no published source (IEC 60034-1 limits sit about 10 K under class B, from memory)',
-        },
+      : { name: 'hot-spot allowance', value: hotSpotAllowance(spec.insulationClass), unit: 'K', source: HOT_SPOT_SOURCE },
     { name: 'thermal class limit', value: spec.insulationClass, unit: '°C', source: 'IEC 60085' },
+    {
+      name: 'supply band (low / high)',
+      value: `${op.low} / ${op.high} of the rated ${spec.drive.kind === 'voltage' ? 'voltage' : 'current'}`,
+      unit: '',
+      source: spec.supplyTolerance ? 'given in the spec' : SUPPLY_TOLERANCE_SOURCE,
+    },
+    {
+      name: 'highest ambient',
+      value: op.ambientMax,
+      unit: '°C',
+      source: spec.ambientMax !== undefined ? 'given in the spec' : 'the rated ambient (the spec names no higher one)',
+    },
+    {
+      name: 'operating corners',
+      value:
+        'low: supply × low with the winding at its steady temperature at rated supply and the highest ambient (pull-in); high: supply × high at its own steady temperature at the highest ambient (heating)',
+      unit: '',
+      source: 'worst-case design practice; over-temperature and runaway are judged at the high corner',
+    },
+    {
+      name: 'intermittent duty',
+      value:
+        spec.cycleTime !== undefined
+          ? 'the repeating on/off cycle integrated with the resistance feedback (closed form of C dθ/dt = P(θ) − hAθ)'
+          : 'duty-averaged power (no cycle time given)',
+      unit: '',
+      source: "Newton's law of cooling, one thermal capacity",
+    },
+    {
+      name: 'switch-off suppression',
+      value: op.suppressionAssumed ? 'a diode across the coil (assumed: the spec names none)' : op.suppression.kind,
+      unit: '',
+      source: op.suppressionAssumed ? 'engine default; state the customer’s suppression' : 'given in the spec',
+    },
+    { name: 'diode forward drop', value: DIODE_FORWARD_DROP, unit: 'V', source: 'silicon rectifier (common practice, no published source)' },
+    {
+      name: 'build spread of R20',
+      value: `±${BUILD_SPREAD[spec.pattern] * 100} % (${spec.pattern})`,
+      unit: '',
+      source: 'common practice, no published source; added to the wire standard’s resistance tolerance',
+    },
     {
       name: 'runaway limit',
       value: RUNAWAY_LIMIT,
@@ -144,21 +224,31 @@ function specAssumptions(spec: CoilSpec): readonly Assumption[] {
   );
   if (spec.pattern === 'random') {
     list.push(
-      spec.fillFactor !== undefined
-        ? { name: 'random-winding fill factor', value: spec.fillFactor, unit: '', source: 'given in the spec' }
-        : {
-            name: 'random-winding fill factor',
-            value: DEFAULT_RANDOM_FILL_FACTOR,
-            unit: '',
-            source: 'bare copper over window (common practice, no published source)',
-          },
+      spec.packingFactor !== undefined
+        ? { name: 'random-winding packing', value: spec.packingFactor, unit: 'turns per d²', source: 'given in the spec' }
+        : spec.fillFactor !== undefined
+          ? {
+              name: 'random-winding packing',
+              value: `from the spec's bare fill factor ${spec.fillFactor}: fill × d² / bare area, at most ${HEXAGONAL_PACKING.toFixed(3)}`,
+              unit: 'turns per d²',
+              source: 'given in the spec (older sheets)',
+            }
+          : {
+              name: 'random-winding packing',
+              value: DEFAULT_RANDOM_PACKING,
+              unit: 'turns per d²',
+              source: 'turns × overall diameter² over the window; about 78 % of close packing (common practice, no published source)',
+            },
     );
   }
   if (spec.magneticCircuit) {
+    const curve = spec.magneticCircuit.bhCurve !== undefined;
     list.push(
       {
         name: 'magnetic circuit',
-        value: 'ℛ = n·g/(μ0 A) + l/(μ0 μr A), B = NI/(ℛA) capped at saturation, L = N²/ℛ',
+        value: curve
+          ? 'N·I = H(B)·l + n·g·B/μ0 on the B–H curve (straight lines between its points), L = N·B·A/I'
+          : 'ℛ = n·g/(μ0 A) + l/(μ0 μr A), B = NI/(ℛA) capped at saturation, L = N·B·A/I',
         unit: '',
         source: 'magnetic circuit (Hopkinson) law; iron and gap of equal area, no leakage or fringing',
       },
@@ -181,33 +271,35 @@ function specAssumptions(spec: CoilSpec): readonly Assumption[] {
 }
 
 const fmt = (x: number, digits = 1) => x.toFixed(digits);
+const supplyText = (spec: CoilSpec, value: number) => (spec.drive.kind === 'voltage' ? `${fmt(value, 1)} V` : `${fmt(value, 3)} A`);
 
 /** Build sheet of one wire on an already validated spec. */
 function designWith(spec: CoilSpec, wire: MagnetWire, assumptions: readonly Assumption[]): BuildSheet {
   const p = CONDUCTORS[spec.conductor];
+  const op = operating(spec);
   const geo = windingGeometry(spec, wire);
   const warnings: CoilWarning[] = [];
   const di = spec.bobbin.innerDiameter;
-  const length = spec.bobbin.length;
+  const windowArea = (spec.bobbin.length * (spec.bobbin.outerDiameter - di)) / 2;
   const ambient = spec.ambient;
   const duty = spec.dutyCycle;
   const h = spec.heatTransferCoefficient ?? DEFAULT_HEAT_TRANSFER_COEFFICIENT;
-  const hotSpot = spec.hotSpotAllowance ?? DEFAULT_HOT_SPOT_ALLOWANCE;
-  const windowArea = (length * (spec.bobbin.outerDiameter - di)) / 2;
+  const hotSpot = spec.hotSpotAllowance ?? hotSpotAllowance(spec.insulationClass);
 
   if (!geo.winds) {
     warnings.push({
       code: 'does-not-fit',
       message:
         `A ${fmt(wire.overallDiameter * 1e3, 3)} mm wire does not wind on this bobbin: ` +
-        `not even one turn in one layer fits the ${fmt(length * 1e3, 2)} mm traverse and ` +
+        `not even one turn in one layer fits the ${fmt(spec.bobbin.length * 1e3, 2)} mm traverse and ` +
         `${fmt(((spec.bobbin.outerDiameter - di) / 2) * 1e3, 2)} mm depth.`,
     });
-    return emptySheet(spec, wire, geo, warnings, assumptions);
+    return emptySheet(spec, wire, geo, warnings, assumptions, hotSpot);
   }
 
   const turns = geo.turns;
   const built = geo.builtDiameter;
+  const length = geo.windingLength;
   if (built > spec.bobbin.outerDiameter * (1 + EPS)) {
     warnings.push({
       code: 'does-not-fit',
@@ -221,50 +313,121 @@ function designWith(spec: CoilSpec, wire: MagnetWire, assumptions: readonly Assu
   const meanTurnLength = (Math.PI * (di + built)) / 2;
   const wireLength = turns * meanTurnLength + (spec.leadLength ?? 0);
   const wireMass = wireLength * wire.massPerMetre;
+  const conductorMass = wireLength * wire.conductorMassPerMetre;
   const fillFactor = (turns * wire.area) / windowArea;
+  const packingFactor = (turns * wire.overallDiameter * wire.overallDiameter) / windowArea;
   const resistance20 = wireLength * wire.resistancePerMetre20;
   // Outer cylinder plus both annular end faces.
   const surfaceArea = Math.PI * built * length + (Math.PI / 2) * (built * built - di * di);
   const conductance = h * surfaceArea;
-
-  // Thermal equilibrium with resistance feedback.
+  const capacity = conductorMass * p.specificHeat;
   const alpha = p.alpha20;
-  const driveValue = spec.drive.kind === 'voltage' ? spec.drive.volts : spec.drive.amps;
-  const steady = steadyTemperature(spec.drive.kind, driveValue, resistance20, alpha, ambient, duty, conductance);
-  const windingTemperature = steady.windingTemperature;
-  const resistanceCold = resistance20 * (1 + alpha * (ambient - 20));
-  const resistanceHot = resistance20 * (1 + alpha * (windingTemperature - 20));
+  const R = (t: number) => resistance20 * (1 + alpha * (t - 20));
+  const kind = spec.drive.kind;
+  const rated = kind === 'voltage' ? spec.drive.volts : spec.drive.amps;
+  const m = spec.magneticCircuit;
 
+  /** Steady state with duty-averaged power at a drive value and ambient. */
+  const steadyAt = (value: number, amb: number) => steadyTemperature(kind, value, resistance20, alpha, amb, duty, conductance);
+  /** A corner: drive `value`, winding at `temperature`. */
+  const corner = (value: number, amb: number, temperature: number, runaway: boolean): Corner & { point?: CircuitSolution } => {
+    const resistance = R(temperature);
+    const current = kind === 'voltage' ? value / resistance : value;
+    const ampereTurns = turns * current;
+    const c: Corner & { point?: CircuitSolution } = {
+      supply: value,
+      ambient: amb,
+      windingTemperature: temperature,
+      resistance,
+      current,
+      power: current * current * resistance,
+      ampereTurns,
+      runaway,
+    };
+    if (m) {
+      const pt = solveCircuit(ampereTurns, m);
+      c.gapFluxDensity = pt.fluxDensity;
+      c.pullForce = pt.force;
+      c.point = pt;
+    }
+    return c;
+  };
+
+  // Nominal: rated supply at the rated ambient (the sheet's main figures).
+  const steady = steadyAt(rated, ambient);
+  const nominalFull = corner(rated, ambient, steady.windingTemperature, steady.runaway);
+  // Low: low supply, winding hot from the rated supply at the highest ambient. High: its own heat.
+  const ratedHot = op.ambientMax === ambient ? steady : steadyAt(rated, op.ambientMax);
+  const lowFull = corner(rated * op.low, op.ambientMax, ratedHot.windingTemperature, ratedHot.runaway);
+  const highSteady = steadyAt(rated * op.high, op.ambientMax);
+  const highFull = corner(rated * op.high, op.ambientMax, highSteady.windingTemperature, highSteady.runaway);
+  const strip = ({ point: _p, ...c }: Corner & { point?: CircuitSolution }): Corner => c;
+  const corners = { low: strip(lowFull), nominal: strip(nominalFull), high: strip(highFull) };
+
+  const windingTemperature = steady.windingTemperature;
+  const resistanceCold = R(ambient);
+  const resistanceHot = nominalFull.resistance;
   let voltage: number;
   let currentCold: number;
-  let currentHot: number;
-  if (spec.drive.kind === 'voltage') {
-    voltage = spec.drive.volts;
+  const currentHot = nominalFull.current;
+  if (kind === 'voltage') {
+    voltage = rated;
     currentCold = voltage / resistanceCold;
-    currentHot = voltage / resistanceHot;
   } else {
-    currentCold = currentHot = spec.drive.amps;
-    voltage = currentHot * resistanceHot;
+    currentCold = rated;
+    voltage = rated * resistanceHot;
   }
   const powerCold = currentCold * currentCold * resistanceCold;
-  const powerHot = currentHot * currentHot * resistanceHot;
+  const powerHot = nominalFull.power;
   const ampereTurnsCold = turns * currentCold;
-  const ampereTurnsHot = turns * currentHot;
+  const ampereTurnsHot = nominalFull.ampereTurns;
   const currentDensity = currentHot / wire.area;
 
-  if (steady.runaway) {
+  // Intermittent duty at the high corner, with the resistance feedback.
+  const limitTemperature = spec.insulationClass - hotSpot;
+  const highValue = rated * op.high;
+  const rAtMax = R(op.ambientMax);
+  const powerAtMax = kind === 'voltage' ? (highValue * highValue) / rAtMax : highValue * highValue * rAtMax;
+  const heating = heatingLaw(kind, powerAtMax, alpha, op.ambientMax, capacity, conductance);
+  const basis: DutyResult['basis'] = duty >= 1 ? 'continuous' : spec.cycleTime !== undefined ? 'periodic' : 'average';
+  let peakTemperature = highFull.windingTemperature;
+  let onTime: number | null = null;
+  if (basis === 'periodic') {
+    onTime = duty * spec.cycleTime!;
+    const rise = periodicPeakRise(heating, onTime, spec.cycleTime! - onTime);
+    peakTemperature = Math.min(RUNAWAY_LIMIT, op.ambientMax + rise);
+  }
+  const limitRise = limitTemperature - op.ambientMax;
+  const toLimit = limitRise <= 0 ? 0 : heatingTime(heating, 0, limitRise);
+  const dutyResult: DutyResult = {
+    supply: highValue,
+    ambient: op.ambientMax,
+    basis,
+    cycleTime: spec.cycleTime ?? null,
+    onTime,
+    peakTemperature,
+    limitTemperature,
+    maxOnTimeFromCold: Number.isFinite(toLimit) ? toLimit : null,
+  };
+
+  const highLabel = `the high corner (${supplyText(spec, highValue)}, ${fmt(op.ambientMax, 0)} °C ambient)`;
+  if (steady.runaway || highSteady.runaway) {
     warnings.push({
       code: 'thermal-runaway',
       message:
-        `No steady temperature below ${RUNAWAY_LIMIT} °C: the winding keeps heating until it burns. ` +
-        `The hot figures on this sheet are at ${RUNAWAY_LIMIT} °C and are not a working point. Fire risk.`,
+        `No steady temperature below ${RUNAWAY_LIMIT} °C at ${steady.runaway ? `the rated supply (${supplyText(spec, rated)})` : highLabel}: ` +
+        `the winding keeps heating until it burns. ` +
+        (steady.runaway ? `The hot figures on this sheet are at ${RUNAWAY_LIMIT} °C and are not a working point. ` : '') +
+        'Fire risk.',
     });
   }
-  if (windingTemperature + hotSpot > spec.insulationClass) {
+  const hottest = Math.max(highFull.windingTemperature, peakTemperature);
+  if (hottest + hotSpot > spec.insulationClass) {
+    const peakNote = basis === 'periodic' && peakTemperature > highFull.windingTemperature ? ` (the peak of its ${fmt(spec.cycleTime!, 0)} s cycle)` : '';
     warnings.push({
       code: 'over-temperature',
       message:
-        `The winding reaches ${fmt(windingTemperature)} °C, plus ${fmt(hotSpot)} K hot-spot allowance, ` +
+        `At ${highLabel} the winding reaches ${fmt(hottest)} °C${peakNote}, plus ${fmt(hotSpot)} K hot-spot allowance, ` +
         `above the ${spec.insulationClass} °C limit of its insulation class: the insulation will fail early ` +
         `and an overheated coil is a fire risk. Reduce the power or duty, or choose a higher class.`,
     });
@@ -286,34 +449,70 @@ function designWith(spec: CoilSpec, wire: MagnetWire, assumptions: readonly Assu
   let inductance: number;
   let gapFluxDensity: number | undefined;
   let pullForce: number | undefined;
-  const m = spec.magneticCircuit;
+  let ironOperatingPoint: BuildSheet['ironOperatingPoint'];
   if (m) {
-    const pt = circuitPoint(
-      ampereTurnsHot,
-      m.relativePermeability,
-      m.saturationFluxDensity,
-      m.ironPathLength,
-      m.airGap,
-      m.gapCount,
-      m.area,
-    );
+    const pt = nominalFull.point!;
     gapFluxDensity = pt.fluxDensity;
     pullForce = pt.force;
-    inductance = (turns * turns) / circuitReluctance(m.relativePermeability, m.ironPathLength, m.airGap, m.gapCount, m.area);
+    inductance = circuitInductance(turns, currentHot, m, pt);
+    ironOperatingPoint = { model: pt.model, fieldStrength: pt.fieldStrength, fluxDensity: pt.fluxDensity, saturated: pt.saturated };
     if (pt.saturated) {
       warnings.push({
         code: 'saturation',
         message:
-          `The iron saturates: ${fmt(ampereTurnsHot, 0)} ampere-turns would drive the circuit past ` +
-          `${fmt(m.saturationFluxDensity, 2)} T, so flux and pull are capped there and the inductance is lower than shown. ` +
-          `More ampere-turns will not add pull.`,
+          pt.model === 'curve'
+            ? `The iron works past the knee of its B–H curve: ${fmt(pt.fluxDensity, 2)} T at ${fmt(ampereTurnsHot, 0)} ampere-turns against the knee at ` +
+              `${fmt(m.saturationFluxDensity, 2)} T, so more ampere-turns add little flux or pull, only heat.`
+            : `The iron saturates: ${fmt(ampereTurnsHot, 0)} ampere-turns would drive the circuit past ` +
+              `${fmt(m.saturationFluxDensity, 2)} T, so flux and pull are capped there. More ampere-turns will not add pull.`,
       });
     }
   } else {
     inductance = wheelerInductance(turns, (a1 + a2) / 2, length, a2 - a1, geo.layers === 1);
   }
   const timeConstant = inductance / resistanceHot;
-  const thermalTimeConstant = (wireMass * p.specificHeat) / conductance;
+  const thermalTimeConstant = capacity / conductance;
+
+  // Switch-off: the largest current (supply × high, winding at the rated ambient) into the clamp.
+  const sup = op.suppression;
+  const breakCurrent = kind === 'voltage' ? highValue / resistanceCold : highValue;
+  const supplyVolts = kind === 'voltage' ? highValue : highValue * resistanceCold;
+  let clamp: number | null = null;
+  if (sup.kind === 'diode') clamp = sup.clampVoltage ?? DIODE_FORWARD_DROP;
+  else if (sup.kind === 'diode-zener') clamp = (sup.clampVoltage ?? 0) + DIODE_FORWARD_DROP;
+  else if (sup.kind === 'tvs') clamp = sup.clampVoltage ?? 0;
+  const offTau = inductance / resistanceCold;
+  const storedEnergy = 0.5 * inductance * breakCurrent * breakCurrent;
+  const switchOff: SwitchOffResult = {
+    kind: sup.kind,
+    assumed: op.suppressionAssumed,
+    current: breakCurrent,
+    storedEnergy,
+    clampVoltage: clamp,
+    peakVoltage: clamp === null ? null : supplyVolts + clamp,
+    timeConstant: offTau,
+    decayTime:
+      clamp === null
+        ? null
+        : offTau * Math.log((breakCurrent + clamp / resistanceCold) / (0.1 * breakCurrent + clamp / resistanceCold)),
+  };
+  if (sup.kind === 'none') {
+    warnings.push({
+      code: 'no-suppression',
+      message:
+        `No suppression across the coil: at switch-off its ${fmtEnergy(storedEnergy)} drive the voltage across the switch up until ` +
+        'something arcs or breaks down — the spike is limited only by arcing or breakdown. Fit a diode, a diode with a Zener or a TVS across the coil.',
+    });
+  }
+
+  const resistanceBand = bandOf(spec, wire, resistance20);
+  const cautions = cautionsOf(spec, {
+    storedEnergy,
+    peakVoltage: switchOff.peakVoltage,
+    hottest,
+    field: Math.max(Math.abs(centreField), gapFluxDensity ?? 0),
+    pull: pullForce,
+  });
 
   return {
     wire,
@@ -326,7 +525,9 @@ function designWith(spec: CoilSpec, wire: MagnetWire, assumptions: readonly Assu
     meanTurnLength,
     wireLength,
     wireMass,
+    conductorMass,
     fillFactor,
+    packingFactor,
     resistance20,
     resistanceHot,
     ambient,
@@ -347,10 +548,88 @@ function designWith(spec: CoilSpec, wire: MagnetWire, assumptions: readonly Assu
     inductance,
     timeConstant,
     thermalTimeConstant,
+    thermalCapacity: capacity,
+    conductance,
+    driveKind: kind,
+    dutyCycle: duty,
     thermalRunaway: steady.runaway,
+    hotSpotAllowance: hotSpot,
+    corners,
+    duty: dutyResult,
+    switchOff,
+    resistanceBand,
+    ironOperatingPoint,
     warnings,
+    cautions,
     assumptions,
   };
+}
+
+function fmtEnergy(j: number): string {
+  return j >= 1 ? `${fmt(j, 2)} J` : `${fmt(j * 1e3, 1)} mJ`;
+}
+
+/** The default R20 acceptance band: the wire standard's resistance tolerance plus the pattern's build spread. */
+function bandOf(spec: CoilSpec, wire: MagnetWire, resistance20: number): ResistanceBand {
+  const t = wire.resistanceTolerance;
+  const build = BUILD_SPREAD[spec.pattern];
+  return {
+    min: resistance20 * (1 - t.minus - build),
+    max: resistance20 * (1 + t.plus + build),
+    basis: `${t.source}, plus ±${build * 100} % for a ${spec.pattern} build (common practice, no published source), added`,
+    wireMinus: t.minus,
+    wirePlus: t.plus,
+    build,
+  };
+}
+
+/** Touching a metal surface for a few seconds burns above about 60 °C (ISO 13732-1 contact burn thresholds, from memory). */
+const HOT_TOUCH = 60;
+
+/** The cautions a sheet carries, beside the numbers they concern. */
+function cautionsOf(
+  spec: CoilSpec,
+  x: { storedEnergy: number; peakVoltage: number | null; hottest: number; field: number; pull: number | undefined },
+): CoilCaution[] {
+  const out: CoilCaution[] = [];
+  out.push({
+    code: 'switch-off',
+    message:
+      x.peakVoltage === null
+        ? `Switching off releases ${fmtEnergy(x.storedEnergy)} with nothing to catch it: the spike can reach hundreds of volts and arcs at the contacts. Never open the circuit by hand at the terminals.`
+        : `Switching off releases ${fmtEnergy(x.storedEnergy)}; with the stated suppression the switch sees up to ${fmt(x.peakVoltage, 0)} V. Without it the spike arcs at the contacts — never open the circuit by hand at the terminals.`,
+  });
+  out.push({
+    code: 'stored-charge',
+    message:
+      'After a hi-pot or insulation-resistance test the winding holds a charge: discharge it through the tester or a discharge stick to earth before anyone touches the leads.',
+  });
+  if (x.hottest >= HOT_TOUCH) {
+    out.push({
+      code: 'hot-surface',
+      message: `The winding reaches ${fmt(x.hottest, 0)} °C: its surface can burn skin. Let it cool or use gloves; keep it away from anything that burns.`,
+    });
+  }
+  if (x.field >= IMPLANT_FIELD_LIMIT) {
+    out.push({
+      code: 'strong-field',
+      message: `The field reaches ${x.field >= 0.1 ? `${fmt(x.field, 2)} T` : `${fmt(x.field * 1e3, 1)} mT`}: keep people with pacemakers or other active implants away (0.5 mT), and loose steel tools away — they can fly to the coil.`,
+    });
+  }
+  const m = spec.magneticCircuit;
+  if (m && m.airGap > 0 && m.gapCount > 0) {
+    out.push({
+      code: 'pinch',
+      message: `The armature closes with up to ${fmt(x.pull ?? 0, 0)} N: keep fingers out of the gap while the coil can be energised.`,
+    });
+  }
+  if (m) {
+    out.push({
+      code: 'lifting',
+      message: `${PULL_CAUTION} Loss of power drops the load: a holding or lifting magnet needs the safeguards of the applicable lifting-device standard and local codes.`,
+    });
+  }
+  return out;
 }
 
 /** A sheet for a wire that does not wind at all: no turns, nothing flows. */
@@ -360,12 +639,27 @@ function emptySheet(
   geo: Geometry,
   warnings: CoilWarning[],
   assumptions: readonly Assumption[],
+  hotSpot: number,
 ): BuildSheet {
+  const op = operating(spec);
   const di = spec.bobbin.innerDiameter;
   const length = spec.bobbin.length;
-  const lead = spec.leadLength ?? 0;
-  const wireLength = lead;
+  const wireLength = spec.leadLength ?? 0;
   const resistance20 = wireLength * wire.resistancePerMetre20;
+  const alpha = CONDUCTORS[spec.conductor].alpha20;
+  const resistanceAmbient = resistance20 * (1 + alpha * (spec.ambient - 20));
+  const rated = spec.drive.kind === 'voltage' ? spec.drive.volts : spec.drive.amps;
+  const idle = (value: number, amb: number): Corner => ({
+    supply: value,
+    ambient: amb,
+    windingTemperature: amb,
+    resistance: resistance20 * (1 + alpha * (amb - 20)),
+    current: 0,
+    power: 0,
+    ampereTurns: 0,
+    ...(spec.magneticCircuit && { gapFluxDensity: 0, pullForce: 0 }),
+    runaway: false,
+  });
   return {
     wire,
     turns: 0,
@@ -377,9 +671,11 @@ function emptySheet(
     meanTurnLength: Math.PI * di,
     wireLength,
     wireMass: wireLength * wire.massPerMetre,
+    conductorMass: wireLength * wire.conductorMassPerMetre,
     fillFactor: 0,
+    packingFactor: 0,
     resistance20,
-    resistanceHot: resistance20 * (1 + CONDUCTORS[spec.conductor].alpha20 * (spec.ambient - 20)),
+    resistanceHot: resistanceAmbient,
     ambient: spec.ambient,
     windingTemperature: spec.ambient,
     temperatureRise: 0,
@@ -398,8 +694,36 @@ function emptySheet(
     inductance: 0,
     timeConstant: 0,
     thermalTimeConstant: 0,
+    thermalCapacity: 0,
+    conductance: 0,
+    driveKind: spec.drive.kind,
+    dutyCycle: spec.dutyCycle,
     thermalRunaway: false,
+    hotSpotAllowance: hotSpot,
+    corners: { low: idle(rated * op.low, op.ambientMax), nominal: idle(rated, spec.ambient), high: idle(rated * op.high, op.ambientMax) },
+    duty: {
+      supply: rated * op.high,
+      ambient: op.ambientMax,
+      basis: spec.dutyCycle >= 1 ? 'continuous' : spec.cycleTime !== undefined ? 'periodic' : 'average',
+      cycleTime: spec.cycleTime ?? null,
+      onTime: spec.cycleTime !== undefined ? spec.dutyCycle * spec.cycleTime : null,
+      peakTemperature: op.ambientMax,
+      limitTemperature: spec.insulationClass - hotSpot,
+      maxOnTimeFromCold: null,
+    },
+    switchOff: {
+      kind: op.suppression.kind,
+      assumed: op.suppressionAssumed,
+      current: 0,
+      storedEnergy: 0,
+      clampVoltage: null,
+      peakVoltage: null,
+      timeConstant: 0,
+      decayTime: null,
+    },
+    resistanceBand: bandOf(spec, wire, resistance20),
     warnings,
+    cautions: [],
     assumptions,
   };
 }
@@ -416,9 +740,10 @@ function wireFor(spec: CoilSpec, size: WireSize): MagnetWire {
 }
 
 /**
- * Build sheet for a coil spec: winding, resistance, steady temperature with resistance
- * feedback, currents and powers cold (at ambient) and hot (at the steady temperature),
- * field, pull and inductance. Throws CoilSpecError for an invalid spec.
+ * Build sheet for a coil spec: winding, resistance and its acceptance band, steady temperature
+ * with resistance feedback, currents and powers cold (at ambient) and hot (at the steady
+ * temperature), the low / nominal / high operating corners, intermittent duty, switch-off,
+ * field, pull and inductance, warnings and cautions. Throws CoilSpecError for an invalid spec.
  */
 export function designCoil(spec: CoilSpec): BuildSheet {
   validateSpec(spec);
@@ -444,30 +769,29 @@ export function sweepWireSizes(spec: CoilSpec): BuildSheet[] {
 
 const BLOCKING = new Set(['does-not-fit', 'over-temperature', 'thermal-runaway']);
 
-/** Why a sheet fails the target at its hot operating point, in words (empty when it meets it). */
-function targetShortfalls(sheet: BuildSheet, target: CoilTarget): string[] {
+/** Why a sheet fails the target at its low corner, in words (empty when it meets it). */
+function targetShortfalls(sheet: BuildSheet, target: CoilTarget, spec: CoilSpec): string[] {
   const reasons: string[] = [];
-  if (target.ampereTurns !== undefined && sheet.ampereTurnsHot < target.ampereTurns) {
-    reasons.push(
-      `gives ${fmt(sheet.ampereTurnsHot, 0)} ampere-turns at operating temperature, short of the ${fmt(target.ampereTurns, 0)} needed`,
-    );
+  const low = sheet.corners.low;
+  const at = `at the low corner (${supplyText(spec, low.supply)}, winding ${fmt(low.windingTemperature, 0)} °C)`;
+  if (target.ampereTurns !== undefined && low.ampereTurns < target.ampereTurns) {
+    reasons.push(`gives ${fmt(low.ampereTurns, 0)} ampere-turns ${at}, short of the ${fmt(target.ampereTurns, 0)} needed`);
   }
-  if (target.gapFluxDensity !== undefined && (sheet.gapFluxDensity ?? 0) < target.gapFluxDensity) {
-    reasons.push(
-      `gives ${fmt(sheet.gapFluxDensity ?? 0, 3)} T in the gap at operating temperature, short of the ${fmt(target.gapFluxDensity, 3)} T needed`,
-    );
+  if (target.gapFluxDensity !== undefined && (low.gapFluxDensity ?? 0) < target.gapFluxDensity) {
+    reasons.push(`gives ${fmt(low.gapFluxDensity ?? 0, 3)} T in the gap ${at}, short of the ${fmt(target.gapFluxDensity, 3)} T needed`);
   }
-  if (target.pullForce !== undefined && (sheet.pullForce ?? 0) < target.pullForce) {
-    reasons.push(`pulls ${fmt(sheet.pullForce ?? 0)} N at operating temperature, short of the ${fmt(target.pullForce)} N needed`);
+  if (target.pullForce !== undefined && (low.pullForce ?? 0) < target.pullForce) {
+    reasons.push(`pulls ${fmt(low.pullForce ?? 0)} N ${at}, short of the ${fmt(target.pullForce)} N needed`);
   }
   return reasons;
 }
 
 /**
  * Sweep every standard size of spec.wire.standard, keep those that fit, stay within the
- * insulation class without runaway, and meet the target at the hot operating point; rank
- * them by lowest hot power, then least wire mass. Every other size is listed with its
- * reasons in words. The target is validated too (pull and gap targets need a magnetic circuit).
+ * insulation class without runaway at the high corner, and meet the target at the low corner
+ * (low supply, winding hot at the highest ambient); rank them by lowest nominal hot power, then
+ * least wire mass. Every other size is listed with its reasons in words. The target is validated
+ * too (pull and gap targets need a magnetic circuit).
  */
 export function solveCoil(spec: CoilSpec, target: CoilTarget): SolveResult {
   validateSpec(spec);
@@ -482,7 +806,7 @@ export function solveCoil(spec: CoilSpec, target: CoilTarget): SolveResult {
     const reasons: string[] = [];
     for (const w of sheet.warnings) if (BLOCKING.has(w.code)) reasons.push(w.message);
     if (sheet.turns > 0) {
-      const short = targetShortfalls(sheet, target);
+      const short = targetShortfalls(sheet, target, spec);
       if (short.length > 0) {
         reasons.push(...short);
         for (const w of sheet.warnings) if (w.code === 'saturation') reasons.push(w.message);

@@ -1,5 +1,6 @@
 /** Air-core field, inductance and iron magnetic circuits. */
 import { MU0 } from './constants';
+import type { MagneticCircuit } from './types';
 
 /** Below this relative thickness a winding is treated as a current sheet. */
 const THIN_LIMIT = 1e-6;
@@ -98,4 +99,105 @@ export function circuitPoint(
     saturated = true;
   }
   return { fluxDensity: b, force: (gapCount * b * b * area) / (2 * MU0), saturated };
+}
+
+export interface CircuitSolution {
+  /** Flux density in the iron and the gap, T. */
+  fluxDensity: number;
+  /** Field strength in the iron, A/m. */
+  fieldStrength: number;
+  /** Total pull over all gaps, N (Maxwell: F = gapCount · B² A / 2μ0). */
+  force: number;
+  /** Linear model: capped at saturation. Curve: past the knee (saturationFluxDensity). */
+  saturated: boolean;
+  model: 'curve' | 'linear';
+}
+
+/** A B–H curve as given, with the origin put in front when it is not its first point. */
+function curvePoints(curve: readonly (readonly [number, number])[]): (readonly [number, number])[] {
+  return curve[0][0] > 0 || curve[0][1] > 0 ? [[0, 0], ...curve] : [...curve];
+}
+
+/** H (A/m) on a B–H curve at flux density B: straight lines between points, μ0 slope beyond the last. */
+export function curveFieldStrength(curve: readonly (readonly [number, number])[], b: number): number {
+  const pts = curvePoints(curve);
+  for (let i = 1; i < pts.length; i++) {
+    const [h0, b0] = pts[i - 1];
+    const [h1, b1] = pts[i];
+    if (b <= b1) return h0 + ((b - b0) / (b1 - b0)) * (h1 - h0);
+  }
+  const [hl, bl] = pts[pts.length - 1];
+  return hl + (b - bl) / MU0;
+}
+
+/**
+ * The operating point of the iron circuit at `ampereTurns` (DC), across `airGap` (default the
+ * circuit's own gap).
+ * - With a B–H curve: N·I = H(B)·l + n·g·B/μ0 solved exactly on the piecewise-linear curve
+ *   (the left side is piecewise linear in B and rises, so the segment holding N·I is found and
+ *   solved as a straight line); beyond the last point B rises as μ0·H.
+ * - Without: the linear model B = N·I/(ℛA) with ℛ = n·g/(μ0A) + l/(μ0μrA), capped at saturation.
+ */
+export function solveCircuit(ampereTurns: number, m: MagneticCircuit, airGap: number = m.airGap): CircuitSolution {
+  const l = m.ironPathLength;
+  const c = (m.gapCount * airGap) / MU0; // A·turns per tesla across the gaps
+  let b: number;
+  let hIron: number;
+  let saturated: boolean;
+  let model: CircuitSolution['model'];
+  if (m.bhCurve && m.bhCurve.length > 0) {
+    model = 'curve';
+    const pts = curvePoints(m.bhCurve);
+    const ni = Math.max(0, ampereTurns);
+    let found = false;
+    b = 0;
+    hIron = 0;
+    let fPrev = pts[0][0] * l + c * pts[0][1];
+    for (let i = 1; i < pts.length && !found; i++) {
+      const [h0, b0] = pts[i - 1];
+      const [h1, b1] = pts[i];
+      const f1 = h1 * l + c * b1;
+      if (ni <= f1) {
+        const t = f1 > fPrev ? (ni - fPrev) / (f1 - fPrev) : 0;
+        b = b0 + t * (b1 - b0);
+        hIron = h0 + t * (h1 - h0);
+        found = true;
+      }
+      fPrev = f1;
+    }
+    if (!found) {
+      const [hl, bl] = pts[pts.length - 1];
+      // dF/dB = l/μ0 + c beyond the last point.
+      const slope = l / MU0 + c;
+      b = bl + (ni - fPrev) / slope;
+      hIron = hl + (b - bl) / MU0;
+    }
+    saturated = b > m.saturationFluxDensity;
+  } else {
+    model = 'linear';
+    const r = circuitReluctance(m.relativePermeability, l, airGap, m.gapCount, m.area);
+    b = r > 0 ? ampereTurns / (r * m.area) : Infinity;
+    saturated = false;
+    if (!(b <= m.saturationFluxDensity)) {
+      b = m.saturationFluxDensity;
+      saturated = true;
+    }
+    hIron = saturated && l > 0 ? Math.max(0, (ampereTurns - c * b) / l) : b / (MU0 * m.relativePermeability);
+  }
+  return { fluxDensity: b, fieldStrength: hIron, force: (m.gapCount * b * b * m.area) / (2 * MU0), saturated, model };
+}
+
+/**
+ * Inductance of a coil on the circuit at its DC operating point, H: flux linkage over current,
+ * L = N·B·A / I (for the unsaturated linear model exactly N²/ℛ). At no current, the small-signal
+ * value N²/ℛ with the curve's first slope (or μr).
+ */
+export function circuitInductance(turns: number, current: number, m: MagneticCircuit, point: CircuitSolution): number {
+  if (current > 0 && point.fluxDensity > 0) return (turns * point.fluxDensity * m.area) / current;
+  let mu = m.relativePermeability;
+  if (m.bhCurve && m.bhCurve.length > 0) {
+    const [h1, b1] = curvePoints(m.bhCurve)[1] ?? m.bhCurve[0];
+    if (h1 > 0) mu = b1 / (MU0 * h1);
+  }
+  return (turns * turns) / circuitReluctance(mu, m.ironPathLength, m.airGap, m.gapCount, m.area);
 }

@@ -2,11 +2,12 @@
  * Cheap, pure helpers for the pictures on a build sheet: the field along the axis, pull
  * against gap, and the warm-up curve.
  */
-import { PULL_CAUTION } from './constants';
+import { CONDUCTORS, MU0, PULL_CAUTION } from './constants';
 import { designCoil } from './design';
 import { CoilSpecError } from './errors';
-import { circuitPoint, solenoidAxialField } from './magnetics';
-import type { BuildSheet, CoilSpec } from './types';
+import { solenoidAxialField, solveCircuit } from './magnetics';
+import { heatingLaw, riseAfter } from './thermal';
+import type { BuildSheet, CoilSpec, MagneticCircuit } from './types';
 
 /** An air-core winding for fieldAlongAxis: diameters and length in m, current as ampere-turns. */
 export interface AxisGeometry {
@@ -65,9 +66,10 @@ export interface PullCurve {
 }
 
 /**
- * Pull of the spec's magnetic circuit at each air gap (m), at the hot operating point:
- * B = NI/(ℛA) capped at saturation, F = gapCount · B² A / (2 μ0) (Maxwell). The coil is
- * designed once; only the gap changes. Requires spec.magneticCircuit.
+ * Pull of the spec's magnetic circuit at each air gap (m), at the hot operating point: the
+ * circuit solved as the sheet solves it (B–H curve, or B = NI/(ℛA) capped at saturation),
+ * F = gapCount · B² A / (2 μ0) (Maxwell). The coil is designed once; only the gap changes.
+ * Requires spec.magneticCircuit.
  */
 export function pullAgainstGap(spec: CoilSpec, gaps: readonly number[]): PullCurve {
   if (!spec || !spec.magneticCircuit) {
@@ -81,33 +83,62 @@ export function pullAgainstGap(spec: CoilSpec, gaps: readonly number[]): PullCur
     if (typeof gap !== 'number' || !Number.isFinite(gap) || gap < 0) {
       throw new CoilSpecError(`gaps.${i}`, 'each gap must be zero or a positive number of metres');
     }
-    const pt = circuitPoint(
-      sheet.ampereTurnsHot,
-      m.relativePermeability,
-      m.saturationFluxDensity,
-      m.ironPathLength,
-      gap,
-      m.gapCount,
-      m.area,
-    );
+    const pt = solveCircuit(sheet.ampereTurnsHot, m, gap);
     points[i] = { gap, fluxDensity: pt.fluxDensity, force: pt.force, saturated: pt.saturated };
   }
   return { ampereTurns: sheet.ampereTurnsHot, caution: PULL_CAUTION, points };
 }
 
 /**
- * Winding temperature after switch-on, first-order model with the sheet's thermal time
- * constant τ = m·c/(h·A): T(t) = Tₐ + ΔT (1 − e^(−t/τ)), ΔT the steady rise. `points` is the
- * list of times (s) or a count of evenly spaced times from 0 to 5τ.
+ * Winding temperature after switch-on from ambient, at the sheet's nominal point with the
+ * duty-averaged power and the resistance feedback: C dθ/dt = d·P(θ) − G θ, solved in closed form
+ * (thermal.ts), C the thermal capacity and G = h·A. `points` is the list of times (s) or a count
+ * of evenly spaced times from 0 to 5τ, τ = C/G.
  */
 export function warmUpCurve(sheet: BuildSheet, points: number | readonly number[]): { t: number; T: number }[] {
   const tau = sheet.thermalTimeConstant;
   const ts = typeof points === 'number' ? spaced(points, 0, 5 * tau) : points;
   const out = new Array<{ t: number; T: number }>(ts.length);
+  if (!(tau > 0) || sheet.turns === 0) {
+    for (let i = 0; i < ts.length; i++) out[i] = { t: ts[i], T: sheet.windingTemperature };
+    return out;
+  }
+  const alpha = CONDUCTORS[sheet.wire.conductor].alpha20;
+  const rAmbient = sheet.resistance20 * (1 + alpha * (sheet.ambient - 20));
+  const p = sheet.driveKind === 'voltage' ? (sheet.voltage * sheet.voltage) / rAmbient : sheet.currentHot * sheet.currentHot * rAmbient;
+  const law = heatingLaw(sheet.driveKind, p * sheet.dutyCycle, alpha, sheet.ambient, sheet.thermalCapacity, sheet.conductance);
   for (let i = 0; i < ts.length; i++) {
     const t = ts[i];
-    const fraction = tau > 0 ? 1 - Math.exp(-t / tau) : 1;
-    out[i] = { t, T: sheet.ambient + sheet.temperatureRise * fraction };
+    out[i] = { t, T: Math.min(sheet.ambient + riseAfter(law, 0, t), Math.max(sheet.windingTemperature, sheet.ambient)) };
+  }
+  return out;
+}
+
+/** The B–H picture of a circuit: the iron's curve (or the linear model with its cap) up to `hMax` A/m. */
+export function bhCurvePoints(m: MagneticCircuit, hMax: number, count = 60): { H: number; B: number }[] {
+  const out: { H: number; B: number }[] = [];
+  if (m.bhCurve && m.bhCurve.length) {
+    const pts = m.bhCurve[0][0] > 0 || m.bhCurve[0][1] > 0 ? [[0, 0] as [number, number], ...m.bhCurve] : [...m.bhCurve];
+    for (const [H, B] of pts) if (H <= hMax) out.push({ H, B });
+    const [hl, bl] = pts[pts.length - 1];
+    if (hMax > hl) out.push({ H: hMax, B: bl + MU0 * (hMax - hl) });
+    else {
+      // End on the curve at hMax.
+      for (let i = 1; i < pts.length; i++) {
+        if (pts[i][0] >= hMax) {
+          const [h0, b0] = pts[i - 1];
+          const [h1, b1] = pts[i];
+          out.push({ H: hMax, B: b0 + ((hMax - h0) / (h1 - h0)) * (b1 - b0) });
+          break;
+        }
+      }
+    }
+    return out;
+  }
+  const slope = MU0 * m.relativePermeability;
+  for (let i = 0; i < count; i++) {
+    const H = (hMax * i) / (count - 1);
+    out.push({ H, B: Math.min(m.saturationFluxDensity, slope * H) });
   }
   return out;
 }

@@ -4,14 +4,21 @@
  * again because other callers may reach it directly). tests/coil/contract.test.ts checks
  * that both accept and refuse the same specs and name the same field.
  */
-import { MAX_FILL_FACTOR, THERMAL_CLASSES } from './constants';
+import { HEXAGONAL_PACKING, MAX_FILL_FACTOR, THERMAL_CLASSES } from './constants';
 import { CoilSpecError } from './errors';
-import { awgBareDiameter, checkWireSize } from './wire';
+import { bareDiameterOf, checkWireSize } from './wire';
 import type { CoilSpec, CoilTarget } from './types';
 
 /** Lowest and highest ambient temperature accepted, °C. */
 export const AMBIENT_MIN = -100;
 export const AMBIENT_MAX = 250;
+/** Supply band limits: low in (0, 1], high in [1, 2]. */
+export const SUPPLY_LOW_MIN = 0.5;
+export const SUPPLY_HIGH_MAX = 2;
+/** Longest duty cycle period accepted, s (a day). */
+export const CYCLE_TIME_MAX = 86400;
+/** Highest suppression clamp voltage accepted, V. */
+export const CLAMP_VOLTAGE_MAX = 10000;
 
 function isNum(x: unknown): x is number {
   return typeof x === 'number' && Number.isFinite(x);
@@ -37,7 +44,7 @@ export function validateSpec(spec: CoilSpec): void {
   }
   if (spec.overallDiameter !== undefined) {
     positive(spec.overallDiameter, 'overallDiameter', 'overall diameter');
-    const bare = spec.wire.standard === 'AWG' ? awgBareDiameter(spec.wire.gauge) : spec.wire.diameter;
+    const bare = bareDiameterOf(spec.wire);
     if (spec.overallDiameter <= bare) {
       throw new CoilSpecError('overallDiameter', 'overall diameter must be larger than the bare diameter');
     }
@@ -59,6 +66,12 @@ export function validateSpec(spec: CoilSpec): void {
     }
     if (spec.pattern !== 'random') throw new CoilSpecError('fillFactor', 'a fill factor applies to random winding only');
   }
+  if (spec.packingFactor !== undefined) {
+    if (!isNum(spec.packingFactor) || spec.packingFactor <= 0 || spec.packingFactor > HEXAGONAL_PACKING + 1e-12) {
+      throw new CoilSpecError('packingFactor', `packing must be above 0 and at most ${HEXAGONAL_PACKING.toFixed(4)} turns per d² (close packing)`);
+    }
+    if (spec.pattern !== 'random') throw new CoilSpecError('packingFactor', 'a packing factor applies to random winding only');
+  }
   if (spec.turns !== undefined && (!Number.isInteger(spec.turns) || spec.turns < 1)) {
     throw new CoilSpecError('turns', 'turns must be a whole number of at least 1');
   }
@@ -73,6 +86,42 @@ export function validateSpec(spec: CoilSpec): void {
   }
   if (!isNum(spec.ambient) || spec.ambient < AMBIENT_MIN || spec.ambient > AMBIENT_MAX) {
     throw new CoilSpecError('ambient', `ambient must be between ${AMBIENT_MIN} and ${AMBIENT_MAX} °C`);
+  }
+  if (spec.ambientMax !== undefined) {
+    if (!isNum(spec.ambientMax) || spec.ambientMax > AMBIENT_MAX) {
+      throw new CoilSpecError('ambientMax', `highest ambient must be a number up to ${AMBIENT_MAX} °C`);
+    }
+    if (spec.ambientMax < spec.ambient) throw new CoilSpecError('ambientMax', 'highest ambient must not be below the rated ambient');
+  }
+  const tol = spec.supplyTolerance;
+  if (tol !== undefined) {
+    if (tol === null || typeof tol !== 'object') throw new CoilSpecError('supplyTolerance', 'supply band must be { low, high }');
+    if (!isNum(tol.low) || tol.low < SUPPLY_LOW_MIN || tol.low > 1) {
+      throw new CoilSpecError('supplyTolerance.low', `low end of the supply must be between ${SUPPLY_LOW_MIN} and 1 of the rated value`);
+    }
+    if (!isNum(tol.high) || tol.high < 1 || tol.high > SUPPLY_HIGH_MAX) {
+      throw new CoilSpecError('supplyTolerance.high', `high end of the supply must be between 1 and ${SUPPLY_HIGH_MAX} of the rated value`);
+    }
+  }
+  if (spec.cycleTime !== undefined) {
+    if (!isNum(spec.cycleTime) || spec.cycleTime <= 0 || spec.cycleTime > CYCLE_TIME_MAX) {
+      throw new CoilSpecError('cycleTime', `cycle time must be above 0 and at most ${CYCLE_TIME_MAX} s`);
+    }
+  }
+  const sup = spec.suppression;
+  if (sup !== undefined) {
+    if (sup === null || typeof sup !== 'object') throw new CoilSpecError('suppression', 'suppression must be { kind, clampVoltage? }');
+    if (sup.kind !== 'none' && sup.kind !== 'diode' && sup.kind !== 'diode-zener' && sup.kind !== 'tvs') {
+      throw new CoilSpecError('suppression.kind', "suppression must be 'none', 'diode', 'diode-zener' or 'tvs'");
+    }
+    if (sup.clampVoltage !== undefined) {
+      if (sup.kind === 'none') throw new CoilSpecError('suppression.clampVoltage', 'no clamp voltage without suppression');
+      if (!isNum(sup.clampVoltage) || sup.clampVoltage <= 0 || sup.clampVoltage > CLAMP_VOLTAGE_MAX) {
+        throw new CoilSpecError('suppression.clampVoltage', `clamp voltage must be above 0 and at most ${CLAMP_VOLTAGE_MAX} V`);
+      }
+    } else if (sup.kind === 'diode-zener' || sup.kind === 'tvs') {
+      throw new CoilSpecError('suppression.clampVoltage', `a ${sup.kind === 'tvs' ? 'TVS' : 'Zener'} needs its clamp voltage`);
+    }
   }
   if (!(THERMAL_CLASSES as readonly number[]).includes(spec.insulationClass)) {
     throw new CoilSpecError('insulationClass', `insulation class must be one of ${THERMAL_CLASSES.join(', ')} (IEC 60085)`);
@@ -97,6 +146,7 @@ export function validateSpec(spec: CoilSpec): void {
     if (m.ironPathLength === 0 && (m.airGap === 0 || m.gapCount === 0)) {
       throw new CoilSpecError('magneticCircuit.ironPathLength', 'the flux path needs an iron length or an air gap');
     }
+    if (m.bhCurve !== undefined) checkCurve(m.bhCurve);
   }
 }
 
@@ -117,5 +167,27 @@ export function validateTarget(target: CoilTarget, spec: CoilSpec): void {
     if (!spec.magneticCircuit) {
       throw new CoilSpecError('target.gapFluxDensity', 'a gap flux density target needs a magnetic circuit in the spec');
     }
+  }
+}
+
+/** Largest number of points a B–H curve may have. */
+export const BH_POINTS_MAX = 64;
+
+/** A B–H curve: 2–64 points [H ≥ 0 A/m, B ≥ 0 T], both rising strictly. */
+function checkCurve(curve: unknown): void {
+  const field = 'magneticCircuit.bhCurve';
+  if (!Array.isArray(curve) || curve.length < 2 || curve.length > BH_POINTS_MAX) {
+    throw new CoilSpecError(field, `a B–H curve needs 2 to ${BH_POINTS_MAX} points [H, B]`);
+  }
+  let prevH = -1;
+  let prevB = -1;
+  for (let i = 0; i < curve.length; i++) {
+    const pt = curve[i] as unknown;
+    if (!Array.isArray(pt) || pt.length !== 2 || !isNum(pt[0]) || !isNum(pt[1]) || pt[0] < 0 || pt[1] < 0) {
+      throw new CoilSpecError(`${field}.${i}`, 'each point is [H in A/m, B in T], both zero or positive');
+    }
+    if (pt[0] <= prevH || pt[1] <= prevB) throw new CoilSpecError(`${field}.${i}`, 'H and B must both rise from point to point');
+    prevH = pt[0];
+    prevB = pt[1];
   }
 }

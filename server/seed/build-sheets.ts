@@ -1,9 +1,11 @@
 /**
- * Demo seed: wire stock and build sheets. Receives a dozen spools, then drafts, approves and
+ * Demo seed: wire stock and build sheets. Receives the spools, then drafts, approves and
  * releases build sheets through the build-sheet service (never by writing rows), so the demo
  * shop has released work orders for the orders that are in production or past, lines still
- * awaiting engineering (some with drafts), an approval with an override reason, a release
- * despite short stock and a superseded version. Suppliers, lots and notes are invented.
+ * awaiting engineering (some with drafts), releases despite short stock and a superseded version.
+ * Every design is the engine's own (engine 2: it meets its target at the low operating corner and
+ * stays within its class at the high one), so no demo sheet carries a warning; an approval would
+ * take an override reason only if one did. Suppliers, lots and notes are invented.
  */
 import { asc, eq, sql } from 'drizzle-orm';
 import type { SessionUser } from '../../src/contracts/auth';
@@ -23,44 +25,50 @@ const daysAgo = (d: number) => new Date(Date.now() - d * 86_400_000).toISOString
 const awg = (gauge: number) => ({ standard: 'AWG' as const, gauge });
 
 /**
- * A dozen invented spools: copper grade 2 mostly, in the sizes the demo designs use, two of
- * aluminium and one metric copper. AWG 32 is deliberately short, so one release needs a note.
+ * Thirteen invented spools: copper grade 2 mostly, in the sizes the demo designs use, two of
+ * aluminium in the R40 size 0.85 mm and one metric copper. AWG 31 is deliberately short, so the
+ * last door-holder releases need a note.
  */
 const SPOOLS: ReceiveSpoolBody[] = [
-  { conductor: 'copper', wire: awg(24), insulationGrade: 2, supplier: 'Hollinrake Wire Co.', lot: 'HW-23-0388', netMass: 35, location: 'Floor bay 2', receivedAt: daysAgo(140) },
-  { conductor: 'copper', wire: awg(27), insulationGrade: 2, supplier: 'Hollinrake Wire Co.', lot: 'HW-23-0417', netMass: 20, location: 'Rack A1', receivedAt: daysAgo(120) },
-  { conductor: 'copper', wire: awg(27), insulationGrade: 2, supplier: 'Marrowgate Enamels', lot: 'ME-5512', netMass: 25, location: 'Rack A1', receivedAt: daysAgo(30) },
-  { conductor: 'copper', wire: awg(32), insulationGrade: 2, supplier: 'Hollinrake Wire Co.', lot: 'HW-23-0502', netMass: 60, location: 'Rack A2', receivedAt: daysAgo(95) },
-  { conductor: 'copper', wire: awg(32), insulationGrade: 2, supplier: 'Tessaly Magnet Wire', lot: 'TMW/88-13', netMass: 50, location: 'Rack A2', receivedAt: daysAgo(12) },
-  { conductor: 'copper', wire: awg(34), insulationGrade: 2, supplier: 'Tessaly Magnet Wire', lot: 'TMW/88-20', netMass: 30, location: 'Rack A3', receivedAt: daysAgo(60) },
+  { conductor: 'copper', wire: awg(20), insulationGrade: 2, supplier: 'Hollinrake Wire Co.', lot: 'HW-23-0388', netMass: 35, location: 'Floor bay 2', receivedAt: daysAgo(140) },
+  { conductor: 'copper', wire: awg(27), insulationGrade: 2, supplier: 'Hollinrake Wire Co.', lot: 'HW-23-0417', netMass: 120, location: 'Rack A1', receivedAt: daysAgo(120) },
+  { conductor: 'copper', wire: awg(27), insulationGrade: 2, supplier: 'Marrowgate Enamels', lot: 'ME-5512', netMass: 90, location: 'Rack A1', receivedAt: daysAgo(30) },
+  { conductor: 'copper', wire: awg(27), insulationGrade: 2, supplier: 'Tessaly Magnet Wire', lot: 'TMW/91-02', netMass: 80, location: 'Floor bay 1', receivedAt: daysAgo(8) },
+  { conductor: 'copper', wire: awg(29), insulationGrade: 2, supplier: 'Hollinrake Wire Co.', lot: 'HW-23-0502', netMass: 60, location: 'Rack A2', receivedAt: daysAgo(95) },
+  { conductor: 'copper', wire: awg(29), insulationGrade: 2, supplier: 'Tessaly Magnet Wire', lot: 'TMW/88-13', netMass: 50, location: 'Rack A2', receivedAt: daysAgo(12) },
+  { conductor: 'copper', wire: awg(31), insulationGrade: 2, supplier: 'Tessaly Magnet Wire', lot: 'TMW/88-20', netMass: 40, location: 'Rack A3', receivedAt: daysAgo(60) },
   { conductor: 'copper', wire: awg(30), insulationGrade: 1, supplier: 'Quenby Fine Wires', lot: 'QFW-0733', netMass: 6, location: 'Cabinet F', receivedAt: daysAgo(20) },
-  { conductor: 'copper', wire: awg(41), insulationGrade: 2, supplier: 'Quenby Fine Wires', lot: 'QFW-0719', netMass: 16, location: 'Cabinet F', receivedAt: daysAgo(45) },
-  { conductor: 'copper', wire: awg(44), insulationGrade: 2, supplier: 'Quenby Fine Wires', lot: 'QFW-0802', netMass: 15, location: 'Cabinet F', receivedAt: daysAgo(25) },
+  { conductor: 'copper', wire: awg(33), insulationGrade: 2, supplier: 'Quenby Fine Wires', lot: 'QFW-0719', netMass: 30, location: 'Cabinet F', receivedAt: daysAgo(45) },
+  { conductor: 'copper', wire: awg(40), insulationGrade: 2, supplier: 'Quenby Fine Wires', lot: 'QFW-0802', netMass: 25, location: 'Cabinet F', receivedAt: daysAgo(25) },
   { conductor: 'copper', wire: { standard: 'metric', diameter: 0.25e-3 }, insulationGrade: 2, supplier: 'Brevik Kabelwerk', lot: 'BK-2291-7', netMass: 7.5, location: 'Rack B1', receivedAt: daysAgo(50) },
-  { conductor: 'aluminium', wire: { standard: 'metric', diameter: 0.9e-3 }, insulationGrade: 2, supplier: 'Brevik Kabelwerk', lot: 'BK-AL-0412', netMass: 50, location: 'Rack B2', receivedAt: daysAgo(80) },
-  { conductor: 'aluminium', wire: { standard: 'metric', diameter: 0.9e-3 }, insulationGrade: 2, supplier: 'Ostrander Alloys', lot: 'OA-AL09-031', netMass: 45, location: 'Rack B2', receivedAt: daysAgo(35) },
+  { conductor: 'aluminium', wire: { standard: 'metric', diameter: 0.85e-3 }, insulationGrade: 2, supplier: 'Brevik Kabelwerk', lot: 'BK-AL-0412', netMass: 50, location: 'Rack B2', receivedAt: daysAgo(80) },
+  { conductor: 'aluminium', wire: { standard: 'metric', diameter: 0.85e-3 }, insulationGrade: 2, supplier: 'Ostrander Alloys', lot: 'OA-AL085-031', netMass: 45, location: 'Rack B2', receivedAt: daysAgo(35) },
 ];
 
 const OVERRIDE_REASON =
   'Customer runs this coil on a timed pulse well below continuous rating; confirmed by phone, their controller limits on-time.';
 const SHORT_STOCK_NOTE = 'More of this size is ordered from the usual supplier, due in three days; winding starts with what is on the rack.';
 
-/** Does a sheet reach the target at its hot operating point? */
+/** Does a sheet reach the target at its low operating corner (low supply, winding hot)? */
 const meets = (s: BuildSheet, t: CoilTarget) =>
-  (t.ampereTurns === undefined || s.ampereTurnsHot >= t.ampereTurns) &&
-  (t.pullForce === undefined || (s.pullForce ?? 0) >= t.pullForce) &&
-  (t.gapFluxDensity === undefined || (s.gapFluxDensity ?? 0) >= t.gapFluxDensity);
+  (t.ampereTurns === undefined || s.corners.low.ampereTurns >= t.ampereTurns) &&
+  (t.pullForce === undefined || (s.corners.low.pullForce ?? 0) >= t.pullForce) &&
+  (t.gapFluxDensity === undefined || (s.corners.low.gapFluxDensity ?? 0) >= t.gapFluxDensity);
+
+/** Warnings that make a size unfit to offer: it does not fit, runs away or runs over its class. */
+const unfit = (s: BuildSheet) => s.warnings.some((w) => w.code === 'does-not-fit' || w.code === 'thermal-runaway' || w.code === 'over-temperature');
 
 /**
  * The wire to build a line with. When the customer states the resistance their electronics
- * expect, the fitting size whose R20 comes closest to it, as the engineer would pick it (the
- * sheet then shows how its other figures compare). Otherwise the solver's best size when one meets
- * the target cleanly; else the coolest size that fits and meets the target although it runs hot
- * (the engineer approves it with an override reason), else the coolest size that fits.
+ * expect, the size within its class at the high corner whose R20 comes closest to it, as the
+ * engineer would pick it (the sheet then shows how its other figures compare). Otherwise the
+ * solver's best size when one meets the target cleanly; else the coolest size that fits and meets
+ * the target although it runs hot (the engineer approves it with an override reason), else the
+ * coolest size that fits.
  */
 function chooseDesign(spec: CoilSpec, target: CoilTarget | null, resistance?: number): { spec: CoilSpec; target: CoilTarget | null } {
   if (resistance !== undefined) {
-    const fits = sweepWireSizes(spec).filter((s) => !s.warnings.some((w) => w.code === 'does-not-fit' || w.code === 'thermal-runaway'));
+    const fits = sweepWireSizes(spec).filter((s) => !unfit(s));
     if (fits.length) {
       const off = (r: number) => Math.abs(Math.log(r / resistance));
       const closest = fits.reduce((a, b) => (off(b.resistance20) < off(a.resistance20) ? b : a));

@@ -124,7 +124,7 @@ type LineTemplate = { title: string; requirement: RequirementInput; tolerancePer
 
 const mm = (x: number) => x / 1000;
 
-const LINE_TEMPLATES: LineTemplate[] = [
+export const LINE_TEMPLATES: LineTemplate[] = [
   {
     title: 'Valve coil 12 V DC, plunger pull',
     requirement: {
@@ -134,7 +134,7 @@ const LINE_TEMPLATES: LineTemplate[] = [
       insulationClass: 155,
       bobbin: { innerDiameter: mm(10), outerDiameter: mm(28), length: mm(32) },
       conductor: { material: 'copper', insulationGrade: 2 },
-      magneticCircuit: { relativePermeability: 2000, saturationFluxDensity: 1.5, ironPathLength: mm(60), airGap: mm(2), gapCount: 1, area: 9.5e-5 },
+      magneticCircuit: { relativePermeability: 2000, saturationFluxDensity: 1.5, ironPathLength: mm(60), airGap: mm(1), gapCount: 1, area: 9.5e-5 },
       target: { kind: 'pull', force: 12 },
     },
     terminationNotes: 'Two 6.3 mm spade terminals moulded into the flange.',
@@ -147,7 +147,7 @@ const LINE_TEMPLATES: LineTemplate[] = [
       ambient: 40,
       insulationClass: 130,
       bobbin: { innerDiameter: mm(16), outerDiameter: mm(40), length: mm(45) },
-      target: { kind: 'ampereTurns', ampereTurns: 1200 },
+      target: { kind: 'ampereTurns', ampereTurns: 1000 },
     },
     leadNotes: 'Flying leads 300 mm, PTFE sleeved, tinned 5 mm.',
   },
@@ -194,7 +194,7 @@ const LINE_TEMPLATES: LineTemplate[] = [
     requirement: {
       drive: { kind: 'voltage', volts: 24 },
       dutyCycle: 1,
-      ambient: 60,
+      ambient: 45,
       insulationClass: 155,
       bobbin: { innerDiameter: mm(16), outerDiameter: mm(44), length: mm(45) },
       conductor: { material: 'copper', wire: { standard: 'AWG', gauge: 27 }, insulationGrade: 2 },

@@ -99,12 +99,66 @@ export type ReleaseBuildSheetRequest = z.output<typeof releaseBuildSheetRequest>
 
 const person = z.object({ id: z.number().int(), name: z.string() });
 
+const corner = z.looseObject({
+  supply: z.number(),
+  ambient: z.number(),
+  windingTemperature: z.number(),
+  resistance: z.number(),
+  current: z.number(),
+  power: z.number(),
+  ampereTurns: z.number(),
+  gapFluxDensity: z.number().optional(),
+  pullForce: z.number().optional(),
+  runaway: z.boolean(),
+});
+
+/**
+ * What engine 2 adds to a result (server/coil/types.ts). Optional: sheets computed by engine 1
+ * are records and keep the numbers they were approved with, without these.
+ */
+export const engineResultV2 = {
+  conductorMass: z.number().optional(),
+  packingFactor: z.number().optional(),
+  hotSpotAllowance: z.number().optional(),
+  corners: z.object({ low: corner, nominal: corner, high: corner }).optional(),
+  duty: z
+    .looseObject({
+      supply: z.number(),
+      ambient: z.number(),
+      basis: z.enum(['continuous', 'average', 'periodic']),
+      cycleTime: z.number().nullable(),
+      onTime: z.number().nullable(),
+      peakTemperature: z.number(),
+      limitTemperature: z.number(),
+      maxOnTimeFromCold: z.number().nullable(),
+    })
+    .optional(),
+  switchOff: z
+    .looseObject({
+      kind: z.enum(['none', 'diode', 'diode-zener', 'tvs']),
+      assumed: z.boolean(),
+      current: z.number(),
+      storedEnergy: z.number(),
+      clampVoltage: z.number().nullable(),
+      peakVoltage: z.number().nullable(),
+      timeConstant: z.number(),
+      decayTime: z.number().nullable(),
+    })
+    .optional(),
+  resistanceBand: z.looseObject({ min: z.number(), max: z.number(), basis: z.string() }).optional(),
+  ironOperatingPoint: z
+    .looseObject({ model: z.enum(['curve', 'linear']), fieldStrength: z.number(), fluxDensity: z.number(), saturated: z.boolean() })
+    .optional(),
+  cautions: z.array(z.object({ code: z.string(), message: z.string() })).optional(),
+};
+
 /**
  * The engine's BuildSheet (server/coil/types.ts) exactly as computed when the sheet was drafted,
  * never recomputed. Only the fields the screens rely on are listed; every other field of the
  * engine's result is passed through unchanged.
  */
 export const coilResult = z.looseObject({
+  ...engineResultV2,
   wire: z.looseObject({
     size: WireSizeSchema,
     conductor: z.enum(['copper', 'aluminium']),
@@ -133,6 +187,24 @@ export const coilResult = z.looseObject({
   warnings: z.array(z.object({ code: z.string(), message: z.string() })),
 });
 export type CoilResult = z.infer<typeof coilResult>;
+
+/**
+ * How a version differs from the version before it: the engine that computed each and the key
+ * figures that changed (SI; `unit` names it). Null for version 1.
+ */
+export const sheetChanges = z.object({
+  fromVersion: z.number().int(),
+  fromEngine: z.string(),
+  toEngine: z.string(),
+  /** True when the previous version was computed by another engine version. */
+  engineChanged: z.boolean(),
+  figures: z.array(z.object({ key: z.string(), label: z.string(), unit: z.string(), before: z.number().nullable(), after: z.number().nullable() })),
+  /** Spec fields that differ (dotted paths). */
+  specChanged: z.array(z.string()),
+  warningsAdded: z.array(z.string()),
+  warningsRemoved: z.array(z.string()),
+});
+export type SheetChanges = z.infer<typeof sheetChanges>;
 
 /** One version of a line's build sheet. */
 export const buildSheetRecord = z.object({
@@ -163,6 +235,8 @@ export const buildSheetRecord = z.object({
   blockedBy: z.array(z.string()),
   /** What may be done now (the server checks again). */
   can: z.object({ approve: z.boolean(), release: z.boolean() }),
+  /** What changed against the previous version (null for the first). */
+  changes: sheetChanges.nullable(),
 });
 export type BuildSheetRecord = z.infer<typeof buildSheetRecord>;
 

@@ -8,9 +8,10 @@
  *   POST /api/spools                         office, engineer, admin   body ReceiveSpoolRequest → 201 { spool: SpoolRecord }
  *   GET  /api/build-sheets/:id/stock-check   engineer, admin, office, foreman → StockCheck
  *
- * Free mass = net mass − reserved mass. Releasing a build sheet reserves, per work order,
- * result.wireMass × quantity × (1 + scrap allowance) from spools of the same conductor, size and
- * insulation grade, oldest lot first (by received date), splitting across spools.
+ * Free mass = net mass − reserved mass. Releasing a build sheet reserves, per work order, the
+ * insulated wire mass per unit (result.wireMass from engine 2, which counts the enamel as a
+ * spool's net mass does) × quantity × (1 + scrap allowance) from spools of the same conductor,
+ * size and insulation grade, oldest lot first (by received date), splitting across spools.
  */
 import { z } from 'zod';
 import { CoilSpecSchema, WireSizeSchema } from './coil';
@@ -94,7 +95,7 @@ export const stockCheck = z.object({
   wire: WireSizeSchema,
   insulationGrade: z.number().int(),
   quantity: z.number().int(),
-  /** Wire mass of one unit (the engine's result), kg. */
+  /** Insulated wire mass of one unit (conductor and enamel, as a spool's net mass counts it), kg. */
   massPerUnit: z.number(),
   scrapAllowancePercent: z.number(),
   /** massPerUnit × quantity × (1 + allowance), kg. */

@@ -50,7 +50,15 @@ describe('contract and engine agree', () => {
   });
 
   it('accept the demo specs', () => {
-    for (const s of [baseSpec(), magnetSpec(), baseSpec({ pattern: 'random', fillFactor: 0.5, turns: 100 })]) {
+    const curve: [number, number][] = [[100, 0.2], [300, 0.9], [1000, 1.35]];
+    for (const s of [
+      baseSpec(),
+      magnetSpec(),
+      baseSpec({ pattern: 'random', fillFactor: 0.5, turns: 100 }),
+      baseSpec({ pattern: 'random', packingFactor: 0.85, ambientMax: 50, supplyTolerance: { low: 0.9, high: 1.05 }, cycleTime: 60 }),
+      baseSpec({ suppression: { kind: 'diode-zener', clampVoltage: 33 } }),
+      magnetSpec({ magneticCircuit: { ...magnetSpec().magneticCircuit!, bhCurve: curve }, suppression: { kind: 'none' } }),
+    ]) {
       expect(zodPaths(s)).toBeNull();
       expect(engineField(s)).toBeNull();
     }
@@ -66,7 +74,17 @@ describe('contract and engine agree', () => {
     ['AWG 3', baseSpec({ wire: { standard: 'AWG', gauge: 3 }, overallDiameter: undefined })],
     ['AWG 45', baseSpec({ wire: { standard: 'AWG', gauge: 45 }, overallDiameter: undefined })],
     ['AWG 22.5', baseSpec({ wire: { standard: 'AWG', gauge: 22.5 }, overallDiameter: undefined })],
-    ['metric 0.3 mm', baseSpec({ wire: { standard: 'metric', diameter: 0.3e-3 }, overallDiameter: undefined })],
+    ['metric 0.31 mm', baseSpec({ wire: { standard: 'metric', diameter: 0.31e-3 }, overallDiameter: undefined })],
+    ['packing beyond close packing', baseSpec({ pattern: 'random', packingFactor: 1.2 })],
+    ['packing on a layer coil', baseSpec({ packingFactor: 0.9 })],
+    ['highest ambient below the rated one', baseSpec({ ambientMax: 10 })],
+    ['supply low end above 1', baseSpec({ supplyTolerance: { low: 1.1, high: 1.2 } })],
+    ['supply high end above 2', baseSpec({ supplyTolerance: { low: 0.85, high: 2.5 } })],
+    ['negative cycle time', baseSpec({ cycleTime: -5 })],
+    ['TVS without clamp voltage', baseSpec({ suppression: { kind: 'tvs' } })],
+    ['unknown suppression', baseSpec({ suppression: { kind: 'varistor' as never } })],
+    ['B–H curve whose B falls', magnetSpec({ magneticCircuit: { ...magnetSpec().magneticCircuit!, bhCurve: [[100, 0.5], [200, 0.4]] } })],
+    ['B–H curve of one point', magnetSpec({ magneticCircuit: { ...magnetSpec().magneticCircuit!, bhCurve: [[100, 0.5]] } })],
     ['grade 4', baseSpec({ insulationGrade: 4 as never })],
     ['class 150', baseSpec({ insulationClass: 150 as never })],
     ['ambient 400', baseSpec({ ambient: 400 })],

@@ -28,7 +28,9 @@ describe('winding geometry (the methods stated in issue 3)', () => {
     expect(s.meanTurnLength).toBeCloseTo(mtl, 12);
     expect(s.wireLength).toBeCloseTo(400 * mtl + 0.2, 9);
     expect(s.resistance20).toBeCloseTo((rho * (400 * mtl + 0.2)) / area, 9);
-    expect(s.wireMass).toBeCloseTo(8890 * area * (400 * mtl + 0.2), 9);
+    expect(s.conductorMass).toBeCloseTo(8890 * area * (400 * mtl + 0.2), 9);
+    // insulated: plus the enamel annulus up to the 0.5 mm spool diameter at 1.4 g/cm³ (from memory)
+    expect(s.wireMass).toBeCloseTo((8890 * area + 1400 * (Math.PI / 4) * (d * d - bare * bare)) * (400 * mtl + 0.2), 9);
     expect(s.fillFactor).toBeCloseTo((400 * area) / (0.02 * 0.005), 12);
     expect(s.surfaceArea).toBeCloseTo(Math.PI * 0.02 * 0.02 + 2 * (Math.PI / 4) * (0.02 ** 2 - 0.01 ** 2), 12);
     expect(s.warnings.map((w) => w.code)).not.toContain('does-not-fit');
@@ -44,7 +46,7 @@ describe('winding geometry (the methods stated in issue 3)', () => {
     expect(s.outerDiameter).toBeLessThanOrEqual(0.02);
   });
 
-  it('random: turns from the fill factor over the window', () => {
+  it('random, older sheets: a bare fill factor is read as turns = fill × window / bare area', () => {
     const s = designCoil(baseSpec({ pattern: 'random', fillFactor: 0.45 }));
     expect(s.turns).toBe(Math.floor((0.45 * 0.02 * 0.005) / area));
     expect(s.fillFactor).toBeCloseTo(0.45, 2);
@@ -135,15 +137,17 @@ describe('solveCoil', () => {
   const target = { pullForce: 15 };
   const result = solveCoil(spec, target);
 
-  it('keeps sizes that meet the target hot and within the class, ranked by hot power then copper', () => {
+  it('keeps sizes that meet the target at the low corner and within the class at the high corner, ranked by hot power then copper', () => {
     expect(result.candidates.length).toBeGreaterThan(0);
     expect(result.best).toBe(result.candidates[0]);
     for (const c of result.candidates) {
-      expect(c.pullForce!).toBeGreaterThanOrEqual(15);
+      expect(c.corners.low.pullForce!).toBeGreaterThanOrEqual(15);
+      expect(c.pullForce!).toBeGreaterThanOrEqual(c.corners.low.pullForce!);
       expect(c.warnings.map((w) => w.code)).not.toContain('over-temperature');
       expect(c.warnings.map((w) => w.code)).not.toContain('does-not-fit');
       expect(c.thermalRunaway).toBe(false);
-      expect(c.windingTemperature + 10).toBeLessThanOrEqual(155);
+      // class 155: 10 K hot-spot allowance (IEC 60034-1 Table 7, from memory)
+      expect(c.corners.high.windingTemperature + 10).toBeLessThanOrEqual(155);
     }
     for (let i = 1; i < result.candidates.length; i++) {
       expect(result.candidates[i].powerHot).toBeGreaterThanOrEqual(result.candidates[i - 1].powerHot);
@@ -166,7 +170,7 @@ describe('solveCoil', () => {
       const s = designCoil({ ...spec, wire: { standard: 'AWG', gauge } });
       const ok =
         s.turns > 0 &&
-        (s.pullForce ?? 0) >= 15 &&
+        (s.corners.low.pullForce ?? 0) >= 15 &&
         !s.warnings.some((w) => ['does-not-fit', 'over-temperature', 'thermal-runaway'].includes(w.code));
       if (ok) bestPower = Math.min(bestPower, s.powerHot);
     }
@@ -198,6 +202,14 @@ describe('invalid specs throw a CoilSpecError naming the field', () => {
     ['unknown class', { insulationClass: 150 as never }, 'insulationClass'],
     ['overall below bare', { overallDiameter: 0.4e-3 }, 'overallDiameter'],
     ['fill factor on a layer winding', { fillFactor: 0.5 }, 'fillFactor'],
+    ['packing on a layer winding', { packingFactor: 0.9 }, 'packingFactor'],
+    ['packing beyond close packing', { pattern: 'random', packingFactor: 1.2 }, 'packingFactor'],
+    ['highest ambient below the rated one', { ambientMax: 20 }, 'ambientMax'],
+    ['supply band above the rated value at its low end', { supplyTolerance: { low: 1.05, high: 1.1 } }, 'supplyTolerance.low'],
+    ['supply band below the rated value at its high end', { supplyTolerance: { low: 0.85, high: 0.95 } }, 'supplyTolerance.high'],
+    ['zero cycle time', { cycleTime: 0 }, 'cycleTime'],
+    ['a TVS without its clamp voltage', { suppression: { kind: 'tvs' } }, 'suppression.clampVoltage'],
+    ['a clamp voltage without suppression', { suppression: { kind: 'none', clampVoltage: 30 } }, 'suppression.clampVoltage'],
     ['fractional turns', { turns: 10.5 }, 'turns'],
   ];
   it.each(cases)('%s', (_label, over, field) => {

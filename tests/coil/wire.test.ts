@@ -6,6 +6,7 @@ import {
   CoilSpecError,
   METRIC_DIAMETERS,
   awgBareDiameter,
+  awgFormulaDiameter,
   awgOverallDiameter,
   magnetWire,
   metricOverallDiameter,
@@ -39,8 +40,8 @@ describe('AWG bare diameters', () => {
 
   it('follows the ASTM B258 defining points: AWG 36 is 5 mil and AWG 0000 would be 460 mil', () => {
     // ASTM B258: the gauge is defined by 0.0050 in at No. 36 and 0.4600 in at No. 0000 (n = −3).
-    expect(awgBareDiameter(36) / mil).toBeCloseTo(5, 10);
-    expect(awgBareDiameter(-3) / mil).toBeCloseTo(460, 8);
+    expect(awgFormulaDiameter(36) / mil).toBeCloseTo(5, 10);
+    expect(awgFormulaDiameter(-3) / mil).toBeCloseTo(460, 8);
   });
 
   it('stocks every AWG size 4–44', () => {
@@ -52,7 +53,8 @@ describe('IEC 60028 copper and conductor constants', () => {
   it('copper resistivity is 1/58 Ω·mm²/m, α 0.00393 /K, density 8.89 g/cm³', () => {
     // IEC 60028 annealed copper standard; converted with mathjs units.
     expect(CONDUCTORS.copper.resistivity20).toBeCloseTo(unit(1 / 58, 'ohm mm^2 / m').toNumber('ohm m'), 15);
-    expect(CONDUCTORS.copper.alpha20).toBe(0.00393);
+    // IEC 60028 states 0.00393 /K (three figures); the engine carries 1/254.5 = 0.0039293.
+    expect(CONDUCTORS.copper.alpha20).toBeCloseTo(0.00393, 5);
     expect(CONDUCTORS.copper.density).toBeCloseTo(unit('8.89 g/cm^3').toNumber('kg/m^3'), 9);
   });
 
@@ -63,9 +65,12 @@ describe('IEC 60028 copper and conductor constants', () => {
     expect(CONDUCTORS.aluminium.density).toBeCloseTo(unit('2.70 g/cm^3').toNumber('kg/m^3'), 9);
   });
 
-  it("copper's α agrees with the 234.5 of the IEC 60034-1 resistance method", () => {
-    // IEC 60034-1 / IEEE Std 118: R ∝ (234.5 + T) for copper, so α20 = 1/(234.5 + 20).
-    expect(CONDUCTORS.copper.alpha20).toBeCloseTo(1 / (234.5 + 20), 5);
+  it("copper's α is the line of IEEE Std 118's 234.5, and k is derived from α for both conductors", () => {
+    // IEEE Std 118: R ∝ (234.5 + T) for copper, so α20 = 1/(234.5 + 20) (IEC 60034-1 rounds k to 235).
+    expect(CONDUCTORS.copper.alpha20).toBeCloseTo(1 / (234.5 + 20), 12);
+    expect(CONDUCTORS.copper.resistanceMethodK).toBeCloseTo(234.5, 9);
+    // 61 % IACS aluminium, α20 = 0.00403 (IEC 60121, from memory): k = 1/0.00403 − 20 = 228.1390…
+    expect(CONDUCTORS.aluminium.resistanceMethodK).toBeCloseTo(228.139, 3);
   });
 });
 
@@ -104,15 +109,30 @@ describe('resistance and mass per length against handbook tables', () => {
     const kgPerM = unit(lb, 'lb').toNumber('kg') / perKft;
     // the table rounds diameters to 0.1 mil: allow 2 × 0.05 mil / d of area error plus 0.5 %
     const tolerance = (2 * 0.05) / (w.bareDiameter / mil) + 0.005;
-    expect(Math.abs(w.massPerMetre / kgPerM - 1)).toBeLessThan(tolerance);
+    expect(Math.abs(w.conductorMassPerMetre / kgPerM - 1)).toBeLessThan(tolerance);
   });
 
-  it('area, resistance and mass follow A = πd²/4, R = ρ/A, m = density·A', () => {
+  it('area, resistance and mass follow A = πd²/4, R = ρ/A, m = density·A plus the enamel annulus', () => {
     const w = magnetWire({ standard: 'metric', diameter: 0.5e-3 }, 'aluminium', 2);
     const area = (Math.PI / 4) * 0.5e-3 * 0.5e-3;
     expect(w.area).toBeCloseTo(area, 18);
     expect(w.resistancePerMetre20).toBeCloseTo(1e-6 / 58 / 0.61 / area, 9);
-    expect(w.massPerMetre).toBeCloseTo(2700 * area, 12);
+    expect(w.conductorMassPerMetre).toBeCloseTo(2700 * area, 12);
+    // Grade 2 over 0.500 mm: 0.566 mm maximum (IEC 60317-0-1, from memory). Enamel 1.4 g/cm³
+    // (polyesterimide / polyamide-imide, from memory): 1400 × π/4 × (0.566² − 0.500²) mm² =
+    // 1400 × 0.7853982 × 0.070356e-6 m² = 7.7360e-5 kg/m, on 5.3014e-4 kg/m of aluminium.
+    expect(w.massPerMetre - w.conductorMassPerMetre).toBeCloseTo(7.736e-5, 8);
+  });
+
+  it('the enamel adds 2–7 % to fine copper wire: AWG 30 heavy and 0.315 mm grade 2 by hand', () => {
+    // AWG 30: bare 10.0 mil (ASTM B258), heavy build overall 11.9 mil maximum (our grade 2 row).
+    // Enamel / copper = 1.4/8.89 × (11.9² − 10.0²)/10.0² = 0.15748 × 0.4161 = 6.553 %.
+    const awg30 = magnetWire({ standard: 'AWG', gauge: 30 }, 'copper', 2);
+    expect(awg30.massPerMetre / awg30.conductorMassPerMetre - 1).toBeCloseTo(0.06553, 4);
+    // 0.315 mm grade 2: 0.367 mm maximum overall (IS 13730-0-1 table for SWG 30, looked up):
+    // 1.4/8.89 × (0.367² − 0.315²)/0.315² = 0.15748 × 0.35743 = 5.629 %.
+    const m315 = magnetWire({ standard: 'metric', diameter: 0.315e-3 }, 'copper', 2);
+    expect(m315.massPerMetre / m315.conductorMassPerMetre - 1).toBeCloseTo(0.05629, 4);
   });
 });
 
@@ -191,7 +211,7 @@ describe('magnetWire refuses unknown sizes', () => {
     [{ standard: 'AWG', gauge: 45 }, 'wire.gauge'],
     [{ standard: 'AWG', gauge: 3 }, 'wire.gauge'],
     [{ standard: 'AWG', gauge: 20.5 }, 'wire.gauge'],
-    [{ standard: 'metric', diameter: 0.3e-3 }, 'wire.diameter'],
+    [{ standard: 'metric', diameter: 0.31e-3 }, 'wire.diameter'],
     [{ standard: 'metric', diameter: -0.5e-3 }, 'wire.diameter'],
   ])('%o → %s', (size, field) => {
     try {

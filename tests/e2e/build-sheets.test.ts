@@ -144,6 +144,15 @@ describe('engineer drafts, approves and releases a build sheet', () => {
         await page.locator('[data-testid="picture-pull"] svg[role="img"]').waitFor();
         expect(await textOf(page, '[data-testid="picture-pull"]')).toContain('Not a lifting rating');
       }
+      // The saved version is shown as its record: corners, duty, switch-off and band from the engine.
+      await page.locator('[data-testid="sheet-record"]').waitFor();
+      expect(await page.locator('[data-testid="sheet-corners"] tr[data-corner]').count()).toBe(3);
+      const lowShown = await textOf(page, '[data-testid="sheet-corners"] tr[data-corner="low"]');
+      const low = (record.result as unknown as { corners: { low: { ampereTurns: number } } }).corners.low;
+      expect(lowShown.replace(/[\s\u00a0]/g, '')).toContain(`${Math.round(low.ampereTurns).toLocaleString('en-GB')}A·turns`);
+      for (const id of ['sheet-duty', 'sheet-switch-off', 'sheet-band']) await page.locator(`[data-testid="${id}"]`).waitFor();
+      expect(await page.locator('[data-caution="stored-charge"]').count()).toBe(1);
+      if (record.spec.magneticCircuit) await page.locator('[data-testid="picture-bh"] svg[role="img"]').waitFor();
       await page.getByText(/^Assumptions and sources/).click();
       expect(await page.locator('[data-testid="assumptions"] tbody tr').count()).toBeGreaterThan(3);
       await screenshot(page, 'build-sheet-draft');

@@ -88,6 +88,12 @@ describe('a work order’s traveler', () => {
     expect(text).toContain('Ω');
     expect(text.replace(/\s+/g, ' ')).toContain(CAUTIONS[0].slice(0, 40));
     expect(text).toMatch(/lifting/);
+    // Engine 2 sheets: the corners, the band, duty and switch-off, and the engine's own cautions.
+    expect(text).toContain('Operating corners');
+    for (const corner of ['Low', 'Nominal', 'High']) expect(text).toMatch(new RegExp(`\\b${corner}\\b`));
+    expect(text).toContain('Band, duty and switch-off');
+    expect(text).toMatch(/Switching off releases/);
+    expect(text).toMatch(/discharge it/);
 
     // Fonts shipped with the app are embedded (poppler's pdffonts: the "emb" column says yes).
     const fonts = execFileSync('pdffonts', [file], { encoding: 'utf8' });

@@ -3,7 +3,7 @@
  * the line's page, which recalculates on the server after each change (debounced).
  */
 import type { ReactNode } from 'react';
-import { THERMAL_CLASS_VALUES } from '../../contracts/coil';
+import { THERMAL_CLASS_VALUES, type CoilReferenceResponse } from '../../contracts/coil';
 import { SelectField, TextField } from '../../components/Field';
 import { formatNumber, type UnitFormatters } from '../../lib/units';
 import { AWG_GAUGES, METRIC_DIAMETERS_MM, type DraftValues } from './specModel';
@@ -18,7 +18,18 @@ type Props = {
   disabled?: boolean;
   /** Shown under the magnetic-circuit switch when the requirement has none. */
   requirementHasCircuit: boolean;
+  /** The engine's core-material library (from /api/coil/reference), for the iron's B–H curve. */
+  coreMaterials?: CoilReferenceResponse['coreMaterials'];
 };
+
+type Material = CoilReferenceResponse['coreMaterials'][number];
+
+/** The library material whose curve the form holds ('' = linear μr, 'custom' = a curve from elsewhere). */
+function materialOf(curve: DraftValues['bhCurve'], materials: Material[]): string {
+  if (!curve) return '';
+  const key = JSON.stringify(curve);
+  return materials.find((m) => m.bhCurve && JSON.stringify(m.bhCurve) === key)?.id ?? 'custom';
+}
 
 function Section({ title, children }: { title: string; children: ReactNode }) {
   return (
@@ -31,7 +42,7 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
 
 const grid = 'grid grid-cols-2 gap-3 sm:grid-cols-3';
 
-export function DraftForm({ values: v, onChange, errors: e, u, disabled, requirementHasCircuit }: Props) {
+export function DraftForm({ values: v, onChange, errors: e, u, disabled, requirementHasCircuit, coreMaterials = [] }: Props) {
   const L = u.lengthSymbol;
   const num = (key: keyof DraftValues, label: string, hint?: ReactNode, extra: Record<string, unknown> = {}) => (
     <TextField
@@ -89,7 +100,7 @@ export function DraftForm({ values: v, onChange, errors: e, u, disabled, require
             <option value="orthocyclic">Orthocyclic</option>
             <option value="random">Random wound</option>
           </SelectField>
-          {v.pattern === 'random' && num('fillFactor', 'Fill factor (bare)', 'blank: the engine’s default')}
+          {v.pattern === 'random' && num('packing', 'Packing, turns per d²', 'blank: 0.9 (at most 1.155, close packing)')}
         </div>
       </Section>
 
@@ -98,7 +109,7 @@ export function DraftForm({ values: v, onChange, errors: e, u, disabled, require
           {num('bobbinInner', `Bore ⌀, ${L}`)}
           {num('bobbinOuter', `Outer limit ⌀, ${L}`)}
           {num('bobbinLength', `Traverse, ${L}`)}
-          {num('leadLength', `Leads, both together, ${L}`)}
+          {num('leadLength', `Leads, both together, ${L}`, 'blank: none')}
           {num('turns', 'Fixed turns', 'blank: fill the bobbin', { inputMode: 'numeric' })}
         </div>
       </Section>
@@ -111,7 +122,11 @@ export function DraftForm({ values: v, onChange, errors: e, u, disabled, require
           </SelectField>
           {v.driveKind === 'voltage' ? num('volts', 'Supply, V DC') : num('amps', 'Current, A DC')}
           {num('dutyPercent', 'Duty cycle, %')}
-          {num('ambient', `Ambient, ${u.temperatureSymbol}`)}
+          {num('cycleTime', 'Cycle time, s', 'blank: duty as average power')}
+          {num('ambient', `Ambient (rated), ${u.temperatureSymbol}`)}
+          {num('ambientMax', `Highest ambient, ${u.temperatureSymbol}`, 'blank: the rated ambient')}
+          {num('supplyLowPct', 'Supply low end, % of rated', 'blank: 85 %')}
+          {num('supplyHighPct', 'Supply high end, % of rated', 'blank: 110 %')}
           <SelectField label="Thermal class" name="insulationClass" value={v.insulationClass} onChange={(ev) => onChange({ insulationClass: ev.target.value })} error={e.insulationClass} disabled={disabled}>
             {THERMAL_CLASS_VALUES.map((c) => (
               <option key={c} value={String(c)}>
@@ -119,6 +134,29 @@ export function DraftForm({ values: v, onChange, errors: e, u, disabled, require
               </option>
             ))}
           </SelectField>
+        </div>
+      </Section>
+
+      <Section title="Switch-off">
+        <div className={grid}>
+          <SelectField
+            label="Suppression across the coil"
+            name="suppressionKind"
+            value={v.suppressionKind}
+            onChange={(ev) => onChange({ suppressionKind: ev.target.value as DraftValues['suppressionKind'] })}
+            error={e.suppressionKind}
+            hint={v.suppressionKind === '' ? 'a diode is assumed' : v.suppressionKind === 'none' ? 'the spike is limited only by arcing' : undefined}
+            disabled={disabled}
+          >
+            <option value="">Not stated</option>
+            <option value="diode">Diode</option>
+            <option value="diode-zener">Diode and Zener</option>
+            <option value="tvs">TVS</option>
+            <option value="none">None</option>
+          </SelectField>
+          {(v.suppressionKind === 'diode-zener' || v.suppressionKind === 'tvs') &&
+            num('clampVoltage', v.suppressionKind === 'tvs' ? 'TVS clamp voltage, V' : 'Zener voltage, V')}
+          {v.suppressionKind === 'diode' && num('clampVoltage', 'Diode forward drop, V', 'blank: 0.7 V')}
         </div>
       </Section>
 
@@ -130,8 +168,30 @@ export function DraftForm({ values: v, onChange, errors: e, u, disabled, require
         </label>
         {v.useCircuit && (
           <div className={grid}>
+            <SelectField
+              label="Iron (B–H curve)"
+              name="coreMaterial"
+              value={materialOf(v.bhCurve, coreMaterials)}
+              disabled={disabled}
+              hint={v.bhCurve ? `${v.bhCurve.length} points; the knee is the saturation field` : 'linear µr, capped at saturation'}
+              onChange={(ev) => {
+                const m = coreMaterials.find((x) => x.id === ev.target.value);
+                if (!ev.target.value) onChange({ bhCurve: null });
+                else if (m) onChange({ bhCurve: m.bhCurve ?? null, mu: String(m.relativePermeability), saturation: String(m.saturationFluxDensity) });
+              }}
+            >
+              <option value="">Linear µr</option>
+              {materialOf(v.bhCurve, coreMaterials) === 'custom' && <option value="custom">Curve of this sheet</option>}
+              {coreMaterials
+                .filter((m) => m.bhCurve)
+                .map((m) => (
+                  <option key={m.id} value={m.id}>
+                    {m.name}
+                  </option>
+                ))}
+            </SelectField>
             {num('mu', 'Relative permeability µr')}
-            {num('saturation', 'Saturation, T')}
+            {num('saturation', v.bhCurve ? 'Knee of the curve, T' : 'Saturation, T')}
             {num('ironPath', `Iron path, ${L}`)}
             {num('airGap', `Air gap (each), ${L}`)}
             {num('gapCount', 'Gaps in series', undefined, { inputMode: 'numeric' })}

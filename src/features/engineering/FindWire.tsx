@@ -10,7 +10,7 @@ import { wireSizeLabel, type WireSizeValue } from './specModel';
 
 export function describeTarget(t: CoilTarget): string {
   const parts: string[] = [];
-  if (t.ampereTurns !== undefined) parts.push(`at least ${n.ampereTurns(t.ampereTurns)} hot`);
+  if (t.ampereTurns !== undefined) parts.push(`at least ${n.ampereTurns(t.ampereTurns)} at the low corner`);
   if (t.pullForce !== undefined) parts.push(`at least ${n.newtons(t.pullForce)} pull at the design gap`);
   if (t.gapFluxDensity !== undefined) parts.push(`at least ${n.tesla(t.gapFluxDensity)} in the gap`);
   return parts.join(', ');
@@ -40,16 +40,16 @@ export function FindWireResults({
       ) : (
         <div className="overflow-x-auto">
           <table className="w-full text-sm">
-            <caption className="mb-1 text-left text-sm text-graphite-600">Sizes that meet the target, least power first.</caption>
+            <caption className="mb-1 text-left text-sm text-graphite-600">Sizes that meet the target at the low corner and stay within their class at the high corner, least power first.</caption>
             <thead>
               <tr className="border-b border-graphite-200 text-left text-graphite-600">
                 <th className="py-1 pr-2 font-semibold">Rank</th>
                 <th className="py-1 pr-2 font-semibold">Wire</th>
                 <th className="py-1 pr-2 text-right font-semibold">Turns</th>
-                <th className="py-1 pr-2 text-right font-semibold">A·turns hot</th>
+                <th className="py-1 pr-2 text-right font-semibold">{result.candidates[0]?.corners?.low.pullForce !== undefined ? 'Pull low' : 'A·turns low'}</th>
                 <th className="py-1 pr-2 text-right font-semibold">P hot</th>
-                <th className="py-1 pr-2 text-right font-semibold">Winding</th>
-                <th className="py-1 pr-2 text-right font-semibold">Conductor</th>
+                <th className="py-1 pr-2 text-right font-semibold">Winding high</th>
+                <th className="py-1 pr-2 text-right font-semibold">Wire</th>
                 <th className="py-1" />
               </tr>
             </thead>
@@ -59,9 +59,11 @@ export function FindWireResults({
                   <td className="py-1 pr-2 font-semibold">{i === 0 ? '1 · best' : i + 1}</td>
                   <td className="py-1 pr-2 font-semibold whitespace-nowrap">{wireSizeLabel(c.wire.size)}</td>
                   <td className="tabular py-1 pr-2 text-right">{formatNumber(c.turns, 0)}</td>
-                  <td className="tabular py-1 pr-2 text-right">{formatNumber(Math.round(c.ampereTurnsHot), 0)}</td>
+                  <td className="tabular py-1 pr-2 text-right whitespace-nowrap">
+                    {c.corners?.low.pullForce !== undefined ? n.newtons(c.corners.low.pullForce) : formatNumber(Math.round(c.corners?.low.ampereTurns ?? c.ampereTurnsHot), 0)}
+                  </td>
                   <td className="tabular py-1 pr-2 text-right whitespace-nowrap">{n.watts(c.powerHot)}</td>
-                  <td className="tabular py-1 pr-2 text-right whitespace-nowrap">{u.temperature(c.windingTemperature, 0)}</td>
+                  <td className="tabular py-1 pr-2 text-right whitespace-nowrap">{u.temperature(c.corners?.high.windingTemperature ?? c.windingTemperature, 0)}</td>
                   <td className="tabular py-1 pr-2 text-right whitespace-nowrap">{n.kilograms(c.wireMass)}</td>
                   <td className="py-1 text-right">
                     <Button size="sm" variant={i === 0 ? 'primary' : 'secondary'} onClick={() => onAdopt(c.wire.size)} disabled={disabled} aria-label={`Adopt ${wireSizeLabel(c.wire.size)}`}>

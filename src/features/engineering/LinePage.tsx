@@ -16,13 +16,13 @@ import { errorMessage, isApiError } from '../../lib/api';
 import { formatDay } from '../../lib/format';
 import { useHasRole, useUnits } from '../../lib/session';
 import type { UnitFormatters } from '../../lib/units';
-import { calculateQuery, lineQuery, lineWorkOrdersQuery, profileQuery, sweepQuery, useSaveDraft, useSolve, type EngineSheet } from './api';
+import { calculateQuery, engineSheet, lineQuery, lineWorkOrdersQuery, profileQuery, referenceQuery, sweepQuery, useSaveDraft, useSolve, type EngineSheet } from './api';
 import { DraftForm } from './DraftForm';
 import { describeTarget, FindWireResults } from './FindWire';
 import { CrossSection } from './pictures/CrossSection';
-import { FieldPlot, PullPlot, WarmUpPlot } from './pictures/Curves';
+import { BHPlot, FieldPlot, PullPlot, WarmUpPlot } from './pictures/Curves';
 import { RequirementView } from './RequirementView';
-import { ApprovePanel, ReleasePanel, SheetStatusBadge, VersionHistory, WorkOrdersCreated } from './SheetActions';
+import { ApprovePanel, ReleasePanel, SheetChangesNote, SheetStatusBadge, VersionHistory, WorkOrdersCreated } from './SheetActions';
 import { AssumptionsPanel, SheetView } from './SheetView';
 import { SweepTable } from './SweepTable';
 import {
@@ -134,6 +134,8 @@ function Desk({ line }: { line: OrderLineDetail }) {
     if ('standard' in change || 'gauge' in change || 'diameterMm' in change || 'conductor' in change || 'insulationGrade' in change) {
       setExtras((x) => (x.overallDiameter === undefined ? x : { ...x, overallDiameter: undefined }));
     }
+    // An older sheet's bare fill factor gives way to a packing typed now, or to another pattern.
+    if ('pattern' in change || 'packing' in change) setExtras((x) => (x.fillFactor === undefined ? x : { ...x, fillFactor: undefined }));
     setValues((v) => ({ ...v, ...change }));
   }, []);
   const adopt = useCallback(
@@ -174,7 +176,19 @@ function Desk({ line }: { line: OrderLineDetail }) {
     setNotice(`Version ${s.version} loaded into the form.`);
   };
 
-  const sheet = shown?.sheet ?? null;
+  // A saved version shown unchanged is a record: its numbers as they were computed, by the engine
+  // that computed them (never recomputed). Anything else is the live calculation.
+  const reference = useQuery(referenceQuery);
+  const currentEngine = reference.data?.engineVersion;
+  const record = useMemo(() => {
+    if (unsaved || !newest) return null;
+    const parsed = engineSheet.safeParse(newest.result);
+    return parsed.success ? parsed.data : null;
+  }, [unsaved, newest]);
+  const sheet = record ?? shown?.sheet ?? null;
+  /** The newest version was computed by an earlier engine: saving the same choices recomputes it. */
+  const olderEngine = !unsaved && !!newest && !!currentEngine && newest.engineVersion !== currentEngine;
+  const sheetSpec = record && newest ? newest.spec : (shown?.spec ?? null);
 
   return (
     <div className="flex flex-col gap-5">
@@ -220,7 +234,14 @@ function Desk({ line }: { line: OrderLineDetail }) {
               </Button>
             }
           >
-            <DraftForm values={values} onChange={onChange} errors={messages.fields} u={u} requirementHasCircuit={line.requirement.magneticCircuit !== undefined} />
+            <DraftForm
+              values={values}
+              onChange={onChange}
+              errors={messages.fields}
+              u={u}
+              requirementHasCircuit={line.requirement.magneticCircuit !== undefined}
+              coreMaterials={reference.data?.coreMaterials}
+            />
             {messages.other.length > 0 && (
               <div className="mt-3">
                 <Alert kind="fault" title="The engine refuses these choices">
@@ -265,11 +286,20 @@ function Desk({ line }: { line: OrderLineDetail }) {
             {calc.isError && !(isApiError(calc.error) && Object.keys(calc.error.fields).length > 0) && (
               <Alert kind="fault" title="The calculation did not run">{errorMessage(calc.error)}</Alert>
             )}
-            {!sheet ? (
+            {record && newest && (
+              <div className="mb-3 flex flex-col gap-2 text-sm" data-testid="sheet-record">
+                <p className="text-graphite-700">
+                  Version {newest.version} as computed by engine {newest.engineVersion} on {formatDay(newest.draftedAt)} — a record, never recomputed.
+                  {currentEngine && currentEngine !== newest.engineVersion && ` The current engine (${currentEngine}) computes a new version afresh.`}
+                </p>
+                {newest.changes && <SheetChangesNote changes={newest.changes} u={u} />}
+              </div>
+            )}
+            {!sheet || !sheetSpec ? (
               spec ? <Loading what="Calculating" /> : <p className="text-graphite-600">Correct the marked fields to calculate.</p>
             ) : (
-              <div className={`transition-opacity ${calculating ? 'opacity-70' : ''}`}>
-                <SheetView sheet={sheet} spec={shown!.spec} tolerancePercent={line.tolerancePercent} u={u} />
+              <div className={`transition-opacity ${calculating && !record ? 'opacity-70' : ''}`}>
+                <SheetView sheet={sheet} spec={sheetSpec} tolerancePercent={line.tolerancePercent} u={u} />
               </div>
             )}
             {writer && (
@@ -281,11 +311,22 @@ function Desk({ line }: { line: OrderLineDetail }) {
                 )}
                 {save.isError && !saveErrors && <Alert kind="fault" title="Not saved">{errorMessage(save.error)}</Alert>}
                 <div className="flex flex-wrap items-center gap-2">
-                  <Button variant={unsaved ? 'primary' : 'secondary'} onClick={onSave} disabled={!spec || !unsaved || calculating || !line.can.draft} busy={save.isPending}>
+                  <Button
+                    variant={unsaved || olderEngine ? 'primary' : 'secondary'}
+                    onClick={onSave}
+                    disabled={!spec || !(unsaved || olderEngine) || calculating || !line.can.draft}
+                    busy={save.isPending}
+                  >
                     Save as draft version {(line.sheets[0]?.version ?? 0) + 1}
                   </Button>
                   <span className="text-sm text-graphite-600">
-                    {!line.can.draft ? 'This order no longer takes new versions.' : unsaved ? 'The form differs from every saved version’s newest.' : `Version ${newest?.version} is what the form shows.`}
+                    {!line.can.draft
+                      ? 'This order no longer takes new versions.'
+                      : unsaved
+                        ? 'The form differs from every saved version’s newest.'
+                        : olderEngine
+                          ? `Version ${newest?.version} was computed by engine ${newest?.engineVersion}: save it again to compute it with engine ${currentEngine} and see what changes.`
+                          : `Version ${newest?.version} is what the form shows.`}
                   </span>
                 </div>
               </div>
@@ -329,7 +370,7 @@ function Desk({ line }: { line: OrderLineDetail }) {
         </Panel>
       )}
 
-      {sheet && shown && <Pictures sheet={sheet} spec={shown.spec} profile={profile.data} profileError={profile.error} u={u} />}
+      {sheet && sheetSpec && <Pictures sheet={sheet} spec={sheetSpec} profile={profile.data} profileError={profile.error} u={u} />}
 
       <Panel title="Every wire size for these choices">
         {sweep.isError ? (
@@ -339,7 +380,10 @@ function Desk({ line }: { line: OrderLineDetail }) {
         ) : (
           <SweepTable rows={sweep.data} insulationClass={shown?.spec.insulationClass ?? 155} current={spec?.wire ?? null} onAdopt={adopt} u={u} />
         )}
-        <p className="mt-2 text-sm text-graphite-600">Click a row to adopt its size. Margin: the thermal class limit less the winding temperature. Sizes that give no winding on this bobbin are left out.</p>
+        <p className="mt-2 text-sm text-graphite-600">
+          Click a row to adopt its size. Low: ampere-turns (or pull) at the low corner, where the target must be met. High: the winding at the high corner, or the
+          duty cycle’s peak when hotter. Margin: the class less its hot-spot allowance, less that. Sizes that give no winding on this bobbin are left out.
+        </p>
       </Panel>
 
       {sheet && <AssumptionsPanel sheet={sheet} engineVersion={newest && !unsaved ? newest.engineVersion : undefined} u={u} />}
@@ -415,6 +459,7 @@ function Pictures({ sheet, spec, profile, profileError, u }: { sheet: EngineShee
             <WarmUpPlot warmUp={profile.warmUp} insulationClass={spec.insulationClass} steady={sheet.windingTemperature} u={u} />
             <FieldPlot field={profile.field} windingLength={sheet.windingLength} u={u} />
             {profile.pull && m && <PullPlot pull={profile.pull} designGap={m.airGap} u={u} />}
+            {profile.bh && <BHPlot bh={profile.bh} u={u} />}
           </>
         )}
       </div>

@@ -8,7 +8,7 @@ import { wireSizeLabel } from './specModel';
 
 function target(r: Requirement): string {
   const t = r.target;
-  if (t.kind === 'ampereTurns') return `${n.ampereTurns(t.ampereTurns)} (hot)`;
+  if (t.kind === 'ampereTurns') return `${n.ampereTurns(t.ampereTurns)} (low corner: low supply, winding hot)`;
   if (t.kind === 'pull') return `${n.newtons(t.force)} pull at the air gap`;
   return `${n.millitesla(t.fluxDensity)} ${t.at === 'gap' ? 'in the air gap' : 'at the winding’s centre'}`;
 }

@@ -12,6 +12,7 @@ import {
   type BuildSheetRecord,
   type BuildSheetStatus,
   type ReleaseResponse,
+  type SheetChanges,
 } from '../../contracts/build-sheets';
 import { STAGE_LABELS } from '../../contracts/stages';
 import { Alert } from '../../components/Alert';
@@ -20,7 +21,7 @@ import { StatusBadge, type StatusKind } from '../../components/Status';
 import { errorMessage, isApiError } from '../../lib/api';
 import { formatDateTime, formatDay } from '../../lib/format';
 import { useUnits } from '../../lib/session';
-import { formatNumber } from '../../lib/units';
+import { formatNumber, type UnitFormatters } from '../../lib/units';
 import { stockCheckQuery, useApprove, useRelease } from './api';
 import * as n from './numbers';
 import { wireSizeLabel } from './specModel';
@@ -239,6 +240,59 @@ export function WorkOrdersCreated({ result }: { result: ReleaseResponse }) {
   );
 }
 
+/** A figure of a sheet in its unit: temperatures in the user's, the rest as numbers.ts writes them. */
+function figure(value: number | null, unit: string, u: UnitFormatters): string {
+  if (value === null) return '—';
+  switch (unit) {
+    case '°C':
+      return u.temperature(value, 0);
+    case 'Ω':
+      return n.ohms(value);
+    case 'kg':
+      return n.kilograms(value);
+    case 'W':
+      return n.watts(value);
+    case 'A·turns':
+      return n.ampereTurns(value);
+    case 'N':
+      return n.newtons(value);
+    case 'H':
+      return n.henries(value);
+    default:
+      return `${formatNumber(value, 0)} ${unit}`;
+  }
+}
+
+/** What a version changed against the one before it: engine, spec fields, figures, warnings. */
+export function SheetChangesNote({ changes, u }: { changes: SheetChanges; u: UnitFormatters }) {
+  const nothing = !changes.engineChanged && changes.figures.length === 0 && changes.specChanged.length === 0;
+  return (
+    <div className="rounded border border-graphite-200 bg-graphite-50 px-3 py-2 text-xs text-graphite-700" data-testid="sheet-changes">
+      <p className="font-semibold text-graphite-800">
+        Against version {changes.fromVersion}
+        {changes.engineChanged ? `: computed by engine ${changes.toEngine} (version ${changes.fromVersion} by ${changes.fromEngine})` : ''}
+        {nothing ? ': the same coil and the same figures' : ''}
+      </p>
+      {changes.specChanged.length > 0 && <p>Choices changed: {changes.specChanged.join(', ')}</p>}
+      {changes.figures.length > 0 && (
+        <ul className="mt-0.5 grid gap-x-4 sm:grid-cols-2">
+          {changes.figures.map((f) => (
+            <li key={f.key} data-figure={f.key}>
+              {f.label}: {figure(f.before, f.unit, u)} → <strong>{figure(f.after, f.unit, u)}</strong>
+            </li>
+          ))}
+        </ul>
+      )}
+      {(changes.warningsAdded.length > 0 || changes.warningsRemoved.length > 0) && (
+        <p>
+          {changes.warningsAdded.length > 0 && `New warnings: ${changes.warningsAdded.join(', ')}. `}
+          {changes.warningsRemoved.length > 0 && `Warnings gone: ${changes.warningsRemoved.join(', ')}.`}
+        </p>
+      )}
+    </div>
+  );
+}
+
 /** Every version of the line's sheet, newest first: status, who and when. */
 export function VersionHistory({ sheets, selectedId, onSelect }: { sheets: BuildSheetRecord[]; selectedId: number | null; onSelect: (s: BuildSheetRecord) => void }) {
   const u = useUnits();
@@ -251,7 +305,7 @@ export function VersionHistory({ sheets, selectedId, onSelect }: { sheets: Build
             <span className="font-semibold">Version {s.version}</span>
             <SheetStatusBadge status={s.status} />
             <span className="text-sm text-graphite-600">
-              {s.result.wire.conductor} {wireSizeLabel(s.result.wire.size)} · {formatNumber(s.result.turns, 0)} turns · {n.ohms(s.result.resistance20)} · {u.temperature(s.result.windingTemperature, 0)}
+              {s.result.wire.conductor} {wireSizeLabel(s.result.wire.size)} · {formatNumber(s.result.turns, 0)} turns · {n.ohms(s.result.resistance20)} · {u.temperature(s.result.windingTemperature, 0)} · engine {s.engineVersion}
             </span>
             <Button size="sm" variant="quiet" className="ml-auto" onClick={() => onSelect(s)} aria-label={`Load version ${s.version} into the form`}>
               Load
@@ -263,6 +317,7 @@ export function VersionHistory({ sheets, selectedId, onSelect }: { sheets: Build
             {s.releasedAt && ` · released by ${s.releasedBy?.name ?? '—'}, ${formatDateTime(s.releasedAt)}`}
             {s.supersededAt && ` · superseded ${formatDateTime(s.supersededAt)}`}
           </p>
+          {s.changes && (s.changes.engineChanged || s.changes.figures.length > 0) && <SheetChangesNote changes={s.changes} u={u} />}
           {s.overrideReason && <p className="text-xs text-graphite-700">Override: {s.overrideReason}</p>}
           {s.shortStockNote && <p className="text-xs text-graphite-700">Short stock: {s.shortStockNote}</p>}
         </li>

@@ -1,6 +1,8 @@
 /**
  * The build sheet's numbers as the engine computed them, grouped the way a winder and a checker
- * read them, each warning beside the number it concerns with the caution that matters.
+ * read them, each warning beside the number it concerns with the caution that matters, the
+ * operating corners, the duty and the switch-off. A record of engine 1 lacks the last three and
+ * says so.
  */
 import type { ReactNode } from 'react';
 import type { CoilSpec } from '../../contracts/coil';
@@ -9,9 +11,11 @@ import { formatNumber, type UnitFormatters } from '../../lib/units';
 import type { EngineSheet } from './api';
 import * as n from './numbers';
 import { wireSizeLabel } from './specModel';
-import { CAUTIONS, PULL_CAUTION, placeOf, warningKind, type WarningPlace } from './warnings';
+import { CAUTIONS, PULL_CAUTION, cautionPlace, placeOf, warningKind, type WarningPlace } from './warnings';
 
 type Warning = EngineSheet['warnings'][number];
+type Caution = NonNullable<EngineSheet['cautions']>[number];
+type Place = WarningPlace | 'electrical';
 
 function WarningNote({ w, u }: { w: Warning; u: UnitFormatters }) {
   const kind = warningKind(w.code);
@@ -31,11 +35,37 @@ function WarningNote({ w, u }: { w: Warning; u: UnitFormatters }) {
   );
 }
 
+/** A safety caution from the engine: where someone can get hurt (not a fault of the design). */
+function CautionNote({ c, u }: { c: Caution; u: UnitFormatters }) {
+  return (
+    <p role="note" data-caution={c.code} className="mt-1 flex gap-2 rounded border border-graphite-300 bg-graphite-50 px-2 py-1 text-xs text-graphite-800">
+      <StatusShape kind="caution" className="mt-0.5 size-3 text-caution" />
+      <span>{u.text(c.message)}</span>
+    </p>
+  );
+}
+
 type Row = { label: ReactNode; value: ReactNode; testId?: string; note?: ReactNode; place?: WarningPlace };
 
-function Group({ title, rows, warnings, u }: { title: string; rows: Row[]; warnings: Warning[]; u: UnitFormatters }) {
+function Group({
+  title,
+  rows,
+  warnings,
+  cautions = [],
+  u,
+  testId,
+  wide,
+}: {
+  title: string;
+  rows: Row[];
+  warnings: Warning[];
+  cautions?: Caution[];
+  u: UnitFormatters;
+  testId?: string;
+  wide?: boolean;
+}) {
   return (
-    <section>
+    <section data-testid={testId} className={wide ? 'md:col-span-2' : undefined}>
       <h3 className="mb-1 text-xs font-bold tracking-wider text-graphite-500 uppercase">{title}</h3>
       <dl className="divide-y divide-graphite-100">
         {rows.map((r, i) => {
@@ -57,24 +87,111 @@ function Group({ title, rows, warnings, u }: { title: string; rows: Row[]; warni
           );
         })}
       </dl>
+      {cautions.map((c) => (
+        <CautionNote key={c.code} c={c} u={u} />
+      ))}
+    </section>
+  );
+}
+
+const supplyOf = (spec: CoilSpec, v: number) => (spec.drive.kind === 'voltage' ? n.volts(v) : n.amps(v));
+
+/** Low / nominal / high: the pull-in worst case, the rated point and the heating worst case. */
+function CornersTable({ sheet, spec, u }: { sheet: EngineSheet; spec: CoilSpec; u: UnitFormatters }) {
+  const c = sheet.corners!;
+  const limit = sheet.duty?.limitTemperature;
+  const withCircuit = c.nominal.pullForce !== undefined;
+  const rows: [string, string, typeof c.low][] = [
+    ['Low', 'pull-in worst case: low supply, winding hot at the highest ambient', c.low],
+    ['Nominal', 'rated supply at the rated ambient', c.nominal],
+    ['High', 'heating worst case: high supply at the highest ambient', c.high],
+  ];
+  return (
+    <section className="md:col-span-2" data-testid="sheet-corners">
+      <h3 className="mb-1 text-xs font-bold tracking-wider text-graphite-500 uppercase">Operating corners</h3>
+      <div className="overflow-x-auto">
+        <table className="w-full text-sm">
+          <caption className="sr-only">Operating corners: low, nominal and high</caption>
+          <thead>
+            <tr className="border-b border-graphite-200 text-right text-graphite-600">
+              <th className="py-1 pr-2 text-left font-semibold">Corner</th>
+              <th className="py-1 pr-2 font-semibold">Supply</th>
+              <th className="py-1 pr-2 font-semibold">Ambient</th>
+              <th className="py-1 pr-2 font-semibold">Winding</th>
+              <th className="py-1 pr-2 font-semibold">R</th>
+              <th className="py-1 pr-2 font-semibold">Current</th>
+              <th className="py-1 pr-2 font-semibold">Power</th>
+              <th className="py-1 pr-2 font-semibold">A·turns</th>
+              {withCircuit && <th className="py-1 pr-2 font-semibold">B gap</th>}
+              {withCircuit && <th className="py-1 font-semibold">Pull</th>}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map(([name, what, k]) => {
+              const hot = limit !== undefined && k.windingTemperature > limit;
+              return (
+                <tr key={name} className="border-b border-graphite-100 text-right" data-corner={name.toLowerCase()}>
+                  <th scope="row" className="py-1 pr-2 text-left font-semibold" title={what}>
+                    {name}
+                    <span className="hidden text-xs font-normal text-graphite-500 2xl:block">{what}</span>
+                  </th>
+                  <td className="tabular py-1 pr-2">{supplyOf(spec, k.supply)}</td>
+                  <td className="tabular py-1 pr-2">{u.temperature(k.ambient, 0)}</td>
+                  <td className={`tabular py-1 pr-2 ${hot || k.runaway ? 'font-semibold text-fault' : ''}`}>
+                    {k.runaway ? 'runaway' : u.temperature(k.windingTemperature, 0)}
+                  </td>
+                  <td className="tabular py-1 pr-2">{n.ohms(k.resistance)}</td>
+                  <td className="tabular py-1 pr-2">{n.amps(k.current)}</td>
+                  <td className="tabular py-1 pr-2">{n.watts(k.power)}</td>
+                  <td className="tabular py-1 pr-2">{n.ampereTurns(k.ampereTurns)}</td>
+                  {withCircuit && <td className="tabular py-1 pr-2">{k.gapFluxDensity !== undefined ? n.tesla(k.gapFluxDensity) : '—'}</td>}
+                  {withCircuit && <td className="tabular py-1">{k.pullForce !== undefined ? n.newtons(k.pullForce) : '—'}</td>}
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+      <p className="mt-1 text-xs text-graphite-500">
+        Low: the pull-in worst case (low supply, winding hot at the highest ambient). High: the heating worst case (high supply at the highest ambient).
+        Supply band {formatNumber((spec.supplyTolerance?.low ?? 0.85) * 100, 0)} – {formatNumber((spec.supplyTolerance?.high ?? 1.1) * 100, 0)}&nbsp;% of rated
+        {spec.supplyTolerance ? '' : ' (the usual band for control supplies)'}; highest ambient {u.temperature(spec.ambientMax ?? spec.ambient, 0)}. A line’s
+        target is met at the low corner; the class is judged at the high corner.
+      </p>
     </section>
   );
 }
 
 export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineSheet; spec: CoilSpec; tolerancePercent: number; u: UnitFormatters }) {
   const w = sheet.warnings;
+  const cautions = sheet.cautions ?? [];
+  const cautionsAt = (place: Place) => cautions.filter((c) => cautionPlace(c.code) === place);
   // A warning with no number of its own is shown above the groups (placed warnings show only once, beside their number).
   const general = w.filter((x) => placeOf(x.code) === 'general' || (placeOf(x.code) === 'magnetic' && sheet.pullForce === undefined && sheet.gapFluxDensity === undefined));
   const tol = tolerancePercent / 100;
-  const margin = spec.insulationClass - sheet.windingTemperature;
+  const allowance = sheet.hotSpotAllowance;
+  const limit = allowance !== undefined ? spec.insulationClass - allowance : spec.insulationClass;
+  const hottest = sheet.corners ? Math.max(sheet.corners.high.windingTemperature, sheet.duty?.peakTemperature ?? -Infinity) : sheet.windingTemperature;
+  const margin = limit - hottest;
   const conductor = sheet.wire.conductor === 'copper' ? 'Copper' : 'Aluminium';
   const hasCircuit = sheet.gapFluxDensity !== undefined || sheet.pullForce !== undefined;
+  const v2 = sheet.corners !== undefined;
+  const partial = sheet.turns > 0 && sheet.windingLength < spec.bobbin.length * (1 - 1e-9);
+  const band = sheet.resistanceBand;
+  const duty = sheet.duty;
+  const off = sheet.switchOff;
 
   return (
     <div className="flex flex-col gap-4" data-testid="sheet">
       {general.map((x) => (
         <WarningNote key={x.code} w={x} u={u} />
       ))}
+      {!v2 && (
+        <p className="rounded border border-graphite-300 bg-graphite-50 px-3 py-2 text-sm text-graphite-700" data-testid="sheet-engine1">
+          A record of the first engine: it kept the nominal point only (no operating corners, duty, switch-off or resistance band), and its wire mass is the bare
+          conductor’s. A new version is computed by the current engine.
+        </p>
+      )}
       <div className="grid gap-x-6 gap-y-4 md:grid-cols-2">
         <Group
           u={u}
@@ -84,7 +201,12 @@ export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineS
             { label: 'Magnet wire', value: `${conductor}, ${wireSizeLabel(sheet.wire.size)}, grade ${sheet.wire.grade}`, testId: 'sheet-wire' },
             { label: 'Bare diameter', value: u.length(sheet.wire.bareDiameter, u.prefs.lengthUnit === 'mm' ? 3 : 4) },
             { label: 'Overall diameter', value: u.length(sheet.wire.overallDiameter, u.prefs.lengthUnit === 'mm' ? 3 : 4) },
-            { label: 'Wire per unit', value: `${n.wireLength(sheet.wireLength, u)} · ${n.kilograms(sheet.wireMass)}`, note: 'conductor mass, insulation not counted' },
+            {
+              label: 'Wire per unit',
+              value: `${n.wireLength(sheet.wireLength, u)} · ${n.kilograms(sheet.wireMass)}`,
+              testId: 'sheet-wire-mass',
+              note: sheet.conductorMass !== undefined ? `insulated wire, as spools are weighed (${conductor.toLowerCase()} ${n.kilograms(sheet.conductorMass)})` : 'conductor mass, insulation not counted (engine 1)',
+            },
           ]}
         />
         <Group
@@ -100,20 +222,35 @@ export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineS
               note: `limit ${u.length(spec.bobbin.outerDiameter)} · bore ${u.length(spec.bobbin.innerDiameter)} · traverse ${u.length(spec.bobbin.length)}`,
               place: 'fit',
             },
+            ...(partial ? [{ label: 'Length the turns occupy', value: u.length(sheet.windingLength), note: 'less than one layer: turns × overall diameter', testId: 'sheet-winding-length' }] : []),
             ...(sheet.fillFactor !== undefined ? [{ label: 'Fill factor (bare)', value: n.percent(sheet.fillFactor) }] : []),
+            ...(sheet.packingFactor !== undefined
+              ? [{ label: 'Packing (turns per d²)', value: formatNumber(sheet.packingFactor, 3), note: 'close packing allows 1.155' }]
+              : []),
           ]}
         />
         <Group
           u={u}
           title="Electrical"
           warnings={w}
+          cautions={cautionsAt('electrical')}
           rows={[
             {
               label: `Resistance at ${u.temperature(20, 0)}`,
               value: n.ohms(sheet.resistance20),
               testId: 'sheet-r20',
-              note: `±${formatNumber(tolerancePercent, 1)} %: ${n.ohms(sheet.resistance20 * (1 - tol))} to ${n.ohms(sheet.resistance20 * (1 + tol))}`,
+              note: `line’s ±${formatNumber(tolerancePercent, 1)} %: ${n.ohms(sheet.resistance20 * (1 - tol))} to ${n.ohms(sheet.resistance20 * (1 + tol))}`,
             },
+            ...(band
+              ? [
+                  {
+                    label: 'Acceptance band (no tolerance stated)',
+                    value: `${n.ohms(band.min)} – ${n.ohms(band.max)}`,
+                    testId: 'sheet-band',
+                    note: band.basis,
+                  },
+                ]
+              : []),
             { label: `Resistance hot (${u.temperature(sheet.windingTemperature, 0)})`, value: n.ohms(sheet.resistanceHot) },
             {
               label: 'Current cold → hot',
@@ -133,36 +270,109 @@ export function SheetView({ sheet, spec, tolerancePercent, u }: { sheet: EngineS
           u={u}
           title="Thermal"
           warnings={w}
+          cautions={cautionsAt('temperature')}
           rows={[
             { label: 'Ambient · duty', value: `${u.temperature(spec.ambient)} · ${n.percent(spec.dutyCycle, 0)}` },
-            { label: 'Temperature rise', value: u.temperatureDifference(sheet.temperatureRise) },
+            { label: 'Temperature rise (nominal)', value: u.temperatureDifference(sheet.temperatureRise) },
             {
-              label: `Winding temperature (class ${spec.insulationClass})`,
+              label: `Winding temperature, nominal (class ${spec.insulationClass})`,
               value: u.temperature(sheet.windingTemperature),
               testId: 'sheet-temperature',
-              note:
-                margin >= 0
-                  ? `${u.temperatureDifference(margin)} below the class limit of ${u.temperature(spec.insulationClass, 0)}`
-                  : `${u.temperatureDifference(-margin)} over the class limit of ${u.temperature(spec.insulationClass, 0)}`,
-              place: 'temperature',
             },
+            ...(sheet.corners
+              ? [
+                  {
+                    label: 'Hottest: high corner or duty peak',
+                    value: u.temperature(hottest),
+                    testId: 'sheet-temperature-high',
+                    note:
+                      margin >= 0
+                        ? `${u.temperatureDifference(margin)} below ${u.temperature(limit, 0)}: class ${spec.insulationClass} less ${u.temperatureDifference(allowance ?? 0, 0)} hot-spot allowance`
+                        : `${u.temperatureDifference(-margin)} over ${u.temperature(limit, 0)}: class ${spec.insulationClass} less ${u.temperatureDifference(allowance ?? 0, 0)} hot-spot allowance`,
+                    place: 'temperature' as const,
+                  },
+                ]
+              : [
+                  {
+                    label: 'Margin to the class',
+                    value: u.temperatureDifference(spec.insulationClass - sheet.windingTemperature),
+                    place: 'temperature' as const,
+                  },
+                ]),
             { label: 'Thermal time constant', value: n.seconds(sheet.thermalTimeConstant) },
           ]}
         />
+        {sheet.corners && <CornersTable sheet={sheet} spec={spec} u={u} />}
+        {duty && (
+          <Group
+            u={u}
+            title={`Duty at the high corner (${supplyOf(spec, duty.supply)}, ${u.temperature(duty.ambient, 0)})`}
+            warnings={w}
+            testId="sheet-duty"
+            rows={[
+              {
+                label: 'Basis',
+                value: duty.basis === 'periodic' ? `${n.duration(duty.onTime ?? 0)} on in ${n.duration(duty.cycleTime ?? 0)}` : duty.basis === 'average' ? 'average power (no cycle time)' : 'continuous',
+              },
+              { label: 'Peak winding temperature', value: u.temperature(duty.peakTemperature), testId: 'sheet-duty-peak', note: `limit ${u.temperature(duty.limitTemperature, 0)} (class less hot-spot allowance)` },
+              {
+                label: 'Longest on-time from cold',
+                value: duty.maxOnTimeFromCold === null ? 'unlimited' : n.duration(duty.maxOnTimeFromCold),
+                testId: 'sheet-duty-ontime',
+                note: duty.maxOnTimeFromCold === null ? 'never reaches the limit when left on' : 'energised from the highest ambient until the limit',
+              },
+            ]}
+          />
+        )}
+        {off && (
+          <Group
+            u={u}
+            title="Switch-off"
+            warnings={w}
+            cautions={cautionsAt('switchOff')}
+            testId="sheet-switch-off"
+            rows={[
+              {
+                label: 'Suppression',
+                value: off.kind === 'none' ? 'none' : off.kind === 'diode' ? 'diode' : off.kind === 'diode-zener' ? 'diode and Zener' : 'TVS',
+                note: off.assumed ? 'assumed: the sheet names none — state the customer’s' : undefined,
+                place: 'switchOff',
+              },
+              { label: 'Current broken (high supply, cold)', value: n.amps(off.current) },
+              { label: 'Stored energy ½LI²', value: n.joules(off.storedEnergy), testId: 'sheet-stored-energy' },
+              { label: 'Clamp voltage', value: off.clampVoltage === null ? '—' : n.volts(off.clampVoltage) },
+              {
+                label: 'Peak across the switch',
+                value: off.peakVoltage === null ? 'unlimited (arcs)' : n.volts(off.peakVoltage),
+                testId: 'sheet-peak-voltage',
+              },
+              { label: 'Release time (to 10 %)', value: off.decayTime === null ? '—' : n.seconds(off.decayTime), note: `L/R cold ${n.seconds(off.timeConstant)}` },
+            ]}
+          />
+        )}
         <Group
           u={u}
           title="Magnetic"
           warnings={w}
+          cautions={cautionsAt('magnetic')}
           rows={[
             { label: 'Field at the centre (air core)', value: n.millitesla(sheet.centreField), testId: 'sheet-field' },
             ...(hasCircuit
               ? [
                   { label: 'Flux density in the gap', value: sheet.gapFluxDensity !== undefined ? n.tesla(sheet.gapFluxDensity) : '—', place: 'magnetic' as const },
+                  ...(sheet.ironOperatingPoint
+                    ? [
+                        {
+                          label: `Iron (${sheet.ironOperatingPoint.model === 'curve' ? 'on its B–H curve' : 'linear µr'})`,
+                          value: `${n.ampsPerMetre(sheet.ironOperatingPoint.fieldStrength)} · ${n.tesla(sheet.ironOperatingPoint.fluxDensity)}`,
+                        },
+                      ]
+                    : []),
                   {
                     label: 'Pull at the design gap',
                     value: sheet.pullForce !== undefined ? n.newtons(sheet.pullForce) : '—',
                     testId: 'sheet-pull',
-                    note: PULL_CAUTION,
+                    note: cautions.length ? undefined : PULL_CAUTION,
                   },
                 ]
               : []),

@@ -21,7 +21,13 @@ const SHORT: Record<string, string> = {
   'current-density': 'current density',
   saturation: 'saturated',
   'does-not-fit': 'does not fit',
+  'no-suppression': 'no suppression',
 };
+
+/** The hottest the winding gets: the high corner, or the duty cycle's peak when hotter (engine 2). */
+const hottest = (r: EngineSheet) => Math.max(r.corners?.high.windingTemperature ?? r.windingTemperature, r.duty?.peakTemperature ?? -Infinity);
+/** The class less the hot-spot allowance. */
+const limitOf = (r: EngineSheet, insulationClass: number) => insulationClass - (r.hotSpotAllowance ?? 0);
 
 /** Sort key of a size: thin to thick by bare diameter. */
 const sizeKey = (s: EngineSheet) => s.wire.bareDiameter;
@@ -63,20 +69,34 @@ export function SweepTable({
       }),
       col.accessor('currentHot', { header: 'I hot, A', cell: (c) => n.sig(c.getValue(), 3), meta: { align: 'right' } }),
       col.accessor('powerHot', { header: 'P hot, W', cell: (c) => n.sig(c.getValue(), 3), meta: { align: 'right' } }),
-      col.accessor('ampereTurnsHot', { header: 'A·turns hot', cell: (c) => formatNumber(Math.round(c.getValue()), 0), meta: { align: 'right' } }),
+      col.accessor('ampereTurnsHot', { header: 'A·turns hot', cell: (c) => formatNumber(Math.round(c.getValue()), 0), meta: { align: 'right', label: 'A·turns hot (nominal)' } }),
+      withPull
+        ? col.accessor((r) => r.corners?.low.pullForce ?? r.pullForce ?? 0, { id: 'lowPull', header: 'Pull low, N', cell: (c) => n.sig(c.getValue(), 3), meta: { align: 'right', label: 'Pull at the low corner N' } })
+        : col.accessor((r) => r.corners?.low.ampereTurns ?? r.ampereTurnsHot, {
+            id: 'lowAT',
+            header: 'A·turns low',
+            cell: (c) => formatNumber(Math.round(c.getValue()), 0),
+            meta: { align: 'right', label: 'A·turns at the low corner' },
+          }),
       col.accessor((r) => fromCelsius(r.windingTemperature, T), {
         id: 'temperature',
         header: `Winding, ${u.temperatureSymbol}`,
         // With thermal runaway the engine stops at its limit: that is no working point, so say so.
         cell: (c) => (c.row.original.thermalRunaway ? <span className="font-semibold text-fault">runaway</span> : formatNumber(c.getValue(), 0)),
-        meta: { align: 'right', csv: (r) => (r.thermalRunaway ? 'runaway' : Number(fromCelsius(r.windingTemperature, T).toFixed(1))) },
+        meta: { align: 'right', label: `Winding nominal ${u.temperatureSymbol}`, csv: (r) => (r.thermalRunaway ? 'runaway' : Number(fromCelsius(r.windingTemperature, T).toFixed(1))) },
       }),
-      col.accessor((r) => fromKelvinDifference(insulationClass - r.windingTemperature, T), {
+      col.accessor((r) => fromCelsius(hottest(r), T), {
+        id: 'high',
+        header: `High, ${u.temperatureSymbol}`,
+        cell: (c) => (c.row.original.corners?.high.runaway ? <span className="font-semibold text-fault">runaway</span> : formatNumber(c.getValue(), 0)),
+        meta: { align: 'right', label: `Winding high corner or duty peak ${u.temperatureSymbol}`, csv: (r) => Number(fromCelsius(hottest(r), T).toFixed(1)) },
+      }),
+      col.accessor((r) => fromKelvinDifference(limitOf(r, insulationClass) - hottest(r), T), {
         id: 'margin',
         header: `Margin, ${u.temperatureDifferenceSymbol}`,
         cell: (c) => {
           const v = c.getValue();
-          if (c.row.original.thermalRunaway) return <span className="font-semibold text-fault">none</span>;
+          if (c.row.original.thermalRunaway || c.row.original.corners?.high.runaway) return <span className="font-semibold text-fault">none</span>;
           return (
             <span className={`inline-flex items-center gap-1 ${v < 0 ? 'font-semibold text-fault' : ''}`}>
               {v < 0 && <StatusShape kind="fault" className="size-3" />}
@@ -84,12 +104,12 @@ export function SweepTable({
             </span>
           );
         },
-        meta: { align: 'right', csv: (r) => Number(fromKelvinDifference(insulationClass - r.windingTemperature, T).toFixed(1)) },
+        meta: { align: 'right', label: `Margin to class less hot-spot ${u.temperatureDifferenceSymbol}`, csv: (r) => Number(fromKelvinDifference(limitOf(r, insulationClass) - hottest(r), T).toFixed(1)) },
       }),
       withPull
-        ? col.accessor((r) => r.pullForce ?? 0, { id: 'pull', header: 'Pull, N', cell: (c) => n.sig(c.getValue(), 3), meta: { align: 'right' } })
+        ? col.accessor((r) => r.pullForce ?? 0, { id: 'pull', header: 'Pull, N', cell: (c) => n.sig(c.getValue(), 3), meta: { align: 'right', label: 'Pull nominal N' } })
         : col.accessor((r) => r.centreField * 1000, { id: 'field', header: 'Centre B, mT', cell: (c) => n.sig(c.getValue(), 3), meta: { align: 'right' } }),
-      col.accessor('wireMass', { header: `${rows[0]?.wire.conductor === 'aluminium' ? 'Aluminium' : 'Copper'}, kg`, cell: (c) => formatNumber(c.getValue(), 3), meta: { align: 'right', label: 'Conductor mass kg' } }),
+      col.accessor('wireMass', { header: 'Wire, kg', cell: (c) => formatNumber(c.getValue(), 3), meta: { align: 'right', label: 'Insulated wire mass kg' } }),
       col.accessor((r) => r.warnings.map((w) => w.code).join(', '), {
         id: 'warnings',
         header: 'Warnings',

@@ -6,12 +6,13 @@ import { keepPreviousData, queryOptions, useMutation } from '@tanstack/react-que
 import { z } from 'zod';
 import {
   buildSheetRecord,
+  engineResultV2,
   engineeringQueueResponse,
   orderLineDetail,
   releaseResponse,
   type DraftBuildSheetBody,
 } from '../../contracts/build-sheets';
-import { coilProfileResponse, type CoilSpec, type CoilTarget } from '../../contracts/coil';
+import { coilProfileResponse, coilReferenceResponse, type CoilSpec, type CoilTarget } from '../../contracts/coil';
 import { stockCheck } from '../../contracts/stock';
 import { workOrderListResponse } from '../../contracts/work-orders';
 import { api } from '../../lib/api';
@@ -24,8 +25,9 @@ const wireSize = z.union([
   z.object({ standard: z.literal('metric'), diameter: z.number() }),
 ]);
 
-/** One design as the engine computes it (extra fields pass through). SI units; °C. */
+/** One design as the engine computes it (extra fields pass through). SI units; °C. Engine 2 fields are optional: stored records of engine 1 lack them. */
 export const engineSheet = z.looseObject({
+  ...engineResultV2,
   wire: z.looseObject({
     size: wireSize,
     conductor: z.enum(['copper', 'aluminium']),
@@ -122,6 +124,13 @@ export const profileQuery = (spec: CoilSpec | null) =>
     staleTime: Infinity,
     retry: false,
   });
+
+/** GET /api/coil/reference — the engine's version, constants and core-material library. */
+export const referenceQuery = queryOptions({
+  queryKey: ['coil', 'reference'],
+  queryFn: ({ signal }) => api.get('/coil/reference', { schema: coilReferenceResponse, signal }),
+  staleTime: Infinity,
+});
 
 export const stockCheckQuery = (sheetId: number) =>
   queryOptions({

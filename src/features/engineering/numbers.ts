@@ -35,3 +35,8 @@ export function wireLength(metres: number, u: UnitFormatters): string {
   const inUnit = fromMetres(metres, u.prefs.lengthUnit);
   return u.prefs.lengthUnit === 'mm' ? `${formatNumber(inUnit / 1000, 1)}${NB}m` : `${formatNumber(inUnit / 12, 0)}${NB}ft`;
 }
+export const joules = (x: number) => (x < 1 ? `${sig(x * 1000, 3)}${NB}mJ` : `${sig(x, 3)}${NB}J`);
+/** A field strength in the iron, A/m (kA/m from 10 000). */
+export const ampsPerMetre = (x: number) => (x >= 1e4 ? `${sig(x / 1000, 3)}${NB}kA/m` : `${sig(x, 3)}${NB}A/m`);
+/** A time to the minute or second it matters at. */
+export const duration = (x: number) => (x < 60 ? `${sig(x, 3)}${NB}s` : x < 3600 ? `${sig(x / 60, 3)}${NB}min` : `${sig(x / 3600, 3)}${NB}h`);

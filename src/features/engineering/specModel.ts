@@ -25,8 +25,8 @@ export type DraftValues = {
   diameterMm: string;
   insulationGrade: '1' | '2' | '3';
   pattern: CoilSpec['pattern'];
-  /** Random winding only; blank = the engine's default. */
-  fillFactor: string;
+  /** Random winding only: turns per overall-diameter² of window; blank = the engine's default (0.9). */
+  packing: string;
   bobbinInner: string;
   bobbinOuter: string;
   bobbinLength: string;
@@ -37,6 +37,17 @@ export type DraftValues = {
   /** Per cent. */
   dutyPercent: string;
   ambient: string;
+  /** Highest ambient; blank = the rated ambient. */
+  ambientMax: string;
+  /** Low and high end of the supply, % of rated; blank = the engine's 85 / 110. */
+  supplyLowPct: string;
+  supplyHighPct: string;
+  /** On/off cycle period, s; blank = duty as average power. */
+  cycleTime: string;
+  /** '' = not stated (the engine assumes a diode). */
+  suppressionKind: '' | NonNullable<CoilSpec['suppression']>['kind'];
+  /** Zener or TVS clamp voltage, V (a diode's forward drop when the kind is diode; blank = 0.7 V). */
+  clampVoltage: string;
   insulationClass: string;
   /** Blank: fill the bobbin. */
   turns: string;
@@ -47,10 +58,12 @@ export type DraftValues = {
   airGap: string;
   gapCount: string;
   area: string;
+  /** The iron's B–H curve, [H A/m, B T] (from the core library), or null for the linear μr model. */
+  bhCurve: [number, number][] | null;
 };
 
 /** Spec fields the form does not show; carried through unchanged from where the form started. */
-export type SpecExtras = Pick<CoilSpec, 'overallDiameter' | 'heatTransferCoefficient' | 'hotSpotAllowance'>;
+export type SpecExtras = Pick<CoilSpec, 'overallDiameter' | 'heatTransferCoefficient' | 'hotSpotAllowance' | 'fillFactor'>;
 
 export const AWG_GAUGES = Array.from({ length: AWG_GAUGE_MAX - AWG_GAUGE_MIN + 1 }, (_, i) => AWG_GAUGE_MIN + i);
 export const METRIC_DIAMETERS_MM = METRIC_NOMINAL_DIAMETERS_MM;
@@ -80,16 +93,23 @@ export function specToValues(spec: CoilSpec, p: UnitPreferences): DraftValues {
     diameterMm: spec.wire.standard === 'metric' ? text(spec.wire.diameter * 1000, 4) : '0.315',
     insulationGrade: String(spec.insulationGrade) as DraftValues['insulationGrade'],
     pattern: spec.pattern,
-    fillFactor: spec.fillFactor === undefined ? '' : text(spec.fillFactor, 4),
+    packing: spec.packingFactor === undefined ? '' : text(spec.packingFactor, 4),
     bobbinInner: L(spec.bobbin.innerDiameter),
     bobbinOuter: L(spec.bobbin.outerDiameter),
     bobbinLength: L(spec.bobbin.length),
-    leadLength: L(spec.leadLength ?? 0),
+    // Blank when the spec names no leads, so a saved spec shown again reads as unchanged.
+    leadLength: L(spec.leadLength),
     driveKind: spec.drive.kind,
     volts: spec.drive.kind === 'voltage' ? text(spec.drive.volts, 4) : '',
     amps: spec.drive.kind === 'current' ? text(spec.drive.amps, 5) : '',
     dutyPercent: text(spec.dutyCycle * 100, 3),
     ambient: text(fromCelsius(spec.ambient, p.temperatureUnit), 2),
+    ambientMax: spec.ambientMax === undefined ? '' : text(fromCelsius(spec.ambientMax, p.temperatureUnit), 2),
+    supplyLowPct: spec.supplyTolerance ? text(spec.supplyTolerance.low * 100, 3) : '',
+    supplyHighPct: spec.supplyTolerance ? text(spec.supplyTolerance.high * 100, 3) : '',
+    cycleTime: spec.cycleTime === undefined ? '' : text(spec.cycleTime, 3),
+    suppressionKind: spec.suppression?.kind ?? '',
+    clampVoltage: spec.suppression?.clampVoltage === undefined ? '' : text(spec.suppression.clampVoltage, 3),
     insulationClass: String(spec.insulationClass),
     turns: spec.turns === undefined ? '' : String(spec.turns),
     useCircuit: m !== undefined,
@@ -99,6 +119,7 @@ export function specToValues(spec: CoilSpec, p: UnitPreferences): DraftValues {
     airGap: m ? L(m.airGap) : '',
     gapCount: m ? String(m.gapCount) : '',
     area: m ? text(fromSquareMetres(m.area, p.lengthUnit), p.lengthUnit === 'mm' ? 3 : 6) : '',
+    bhCurve: m?.bhCurve ?? null,
   };
 }
 
@@ -107,6 +128,7 @@ export function extrasOf(spec: CoilSpec): SpecExtras {
   if (spec.overallDiameter !== undefined) out.overallDiameter = spec.overallDiameter;
   if (spec.heatTransferCoefficient !== undefined) out.heatTransferCoefficient = spec.heatTransferCoefficient;
   if (spec.hotSpotAllowance !== undefined) out.hotSpotAllowance = spec.hotSpotAllowance;
+  if (spec.fillFactor !== undefined) out.fillFactor = spec.fillFactor;
   return out;
 }
 
@@ -124,8 +146,13 @@ export function anchorsOf(spec: CoilSpec, p: UnitPreferences): Anchors {
     ['bobbinInner', spec.bobbin.innerDiameter],
     ['bobbinOuter', spec.bobbin.outerDiameter],
     ['bobbinLength', spec.bobbin.length],
-    ['leadLength', spec.leadLength ?? 0],
-    ['fillFactor', spec.fillFactor],
+    ['leadLength', spec.leadLength],
+    ['packing', spec.packingFactor],
+    ['ambientMax', spec.ambientMax],
+    ['supplyLowPct', spec.supplyTolerance?.low],
+    ['supplyHighPct', spec.supplyTolerance?.high],
+    ['cycleTime', spec.cycleTime],
+    ['clampVoltage', spec.suppression?.clampVoltage],
     ['volts', spec.drive.kind === 'voltage' ? spec.drive.volts : undefined],
     ['amps', spec.drive.kind === 'current' ? spec.drive.amps : undefined],
     ['dutyPercent', spec.dutyCycle],
@@ -166,7 +193,19 @@ export function valuesToSpecInput(v: DraftValues, p: UnitPreferences, extras: Sp
   if (extras.overallDiameter !== undefined) spec.overallDiameter = extras.overallDiameter;
   if (extras.heatTransferCoefficient !== undefined) spec.heatTransferCoefficient = extras.heatTransferCoefficient;
   if (extras.hotSpotAllowance !== undefined) spec.hotSpotAllowance = extras.hotSpotAllowance;
-  if (v.pattern === 'random' && v.fillFactor.trim() !== '') spec.fillFactor = exact('fillFactor', num);
+  if (v.pattern === 'random' && extras.fillFactor !== undefined) spec.fillFactor = extras.fillFactor;
+  if (v.pattern === 'random' && v.packing.trim() !== '') spec.packingFactor = exact('packing', num);
+  if (v.ambientMax.trim() !== '') spec.ambientMax = exact('ambientMax', (t) => toCelsius(num(t), p.temperatureUnit));
+  if (v.supplyLowPct.trim() !== '' || v.supplyHighPct.trim() !== '') {
+    spec.supplyTolerance = {
+      low: v.supplyLowPct.trim() === '' ? 0.85 : exact('supplyLowPct', (t) => num(t) / 100),
+      high: v.supplyHighPct.trim() === '' ? 1.1 : exact('supplyHighPct', (t) => num(t) / 100),
+    };
+  }
+  if (v.cycleTime.trim() !== '') spec.cycleTime = exact('cycleTime', num);
+  if (v.suppressionKind !== '') {
+    spec.suppression = { kind: v.suppressionKind, ...(v.suppressionKind !== 'none' && v.clampVoltage.trim() !== '' && { clampVoltage: exact('clampVoltage', num) }) };
+  }
   if (v.leadLength.trim() !== '') spec.leadLength = L('leadLength');
   if (v.turns.trim() !== '') spec.turns = num(v.turns);
   if (v.useCircuit) {
@@ -177,6 +216,7 @@ export function valuesToSpecInput(v: DraftValues, p: UnitPreferences, extras: Sp
       airGap: L('airGap'),
       gapCount: num(v.gapCount),
       area: exact('area', (t) => toSquareMetres(num(t), p.lengthUnit)),
+      ...(v.bhCurve && { bhCurve: v.bhCurve }),
     };
   }
   return spec;
@@ -201,7 +241,16 @@ export const FIELD_PATHS: Record<string, keyof DraftValues> = {
   wire: 'gauge',
   insulationGrade: 'insulationGrade',
   pattern: 'pattern',
-  fillFactor: 'fillFactor',
+  fillFactor: 'packing',
+  packingFactor: 'packing',
+  ambientMax: 'ambientMax',
+  supplyTolerance: 'supplyLowPct',
+  'supplyTolerance.low': 'supplyLowPct',
+  'supplyTolerance.high': 'supplyHighPct',
+  cycleTime: 'cycleTime',
+  suppression: 'suppressionKind',
+  'suppression.kind': 'suppressionKind',
+  'suppression.clampVoltage': 'clampVoltage',
   'bobbin.innerDiameter': 'bobbinInner',
   'bobbin.outerDiameter': 'bobbinOuter',
   'bobbin.length': 'bobbinLength',

@@ -2,7 +2,7 @@
  * Where each engine warning belongs on the sheet, and the caution that goes with it. The engine's
  * own message says what is wrong; the caution says why it matters to the people in the shop.
  */
-export type WarningPlace = 'temperature' | 'fit' | 'magnetic' | 'currentDensity' | 'general';
+export type WarningPlace = 'temperature' | 'fit' | 'magnetic' | 'currentDensity' | 'switchOff' | 'general';
 
 export function placeOf(code: string): WarningPlace {
   switch (code) {
@@ -15,6 +15,8 @@ export function placeOf(code: string): WarningPlace {
       return 'magnetic';
     case 'current-density':
       return 'currentDensity';
+    case 'no-suppression':
+      return 'switchOff';
     default:
       return 'general';
   }
@@ -28,7 +30,27 @@ export const CAUTIONS: Partial<Record<string, string>> = {
   saturation: 'The iron saturates: more ampere-turns add little pull or field, only heat.',
   'does-not-fit': 'The winding builds past the bobbin’s outer limit; the floor cannot wind it. Change the wire or the turns.',
   'current-density': 'The current density is high for this duty; check the temperature margin before approving.',
+  'no-suppression':
+    'Danger at switch-off: the collapsing field drives the voltage up until the contacts arc or the insulation or transistor breaks down. Specify a diode, diode and Zener, or TVS across the coil.',
 };
+
+/** Where each of the engine's cautions (people can get hurt) sits on the sheet. */
+export function cautionPlace(code: string): WarningPlace | 'electrical' {
+  switch (code) {
+    case 'switch-off':
+      return 'switchOff';
+    case 'stored-charge':
+      return 'electrical';
+    case 'hot-surface':
+      return 'temperature';
+    case 'strong-field':
+    case 'pinch':
+    case 'lifting':
+      return 'magnetic';
+    default:
+      return 'general';
+  }
+}
 
 export const PULL_CAUTION =
   'A computed pull is not a lifting rating: for lifting or holding use, apply the lifting-device standard and prove the magnet by test with a safety factor.';

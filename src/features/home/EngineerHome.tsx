@@ -38,6 +38,7 @@ function ReferencePanel() {
                 <th className="py-1 font-semibold">Class</th>
                 <th className="py-1 font-semibold">Letter</th>
                 <th className="py-1 text-right font-semibold">Limit</th>
+                <th className="py-1 text-right font-semibold">Hot-spot allowance</th>
               </tr>
             </thead>
             <tbody>
@@ -46,10 +47,12 @@ function ReferencePanel() {
                   <td className="py-1 font-semibold">{c}</td>
                   <td className="py-1">{CLASS_LETTERS[c] ?? '—'}</td>
                   <td className="py-1 text-right">{u.temperature(c, 0)}</td>
+                  <td className="py-1 text-right">{u.temperatureDifference(ref.data.hotSpot.allowances[String(c)] ?? 0, 0)}</td>
                 </tr>
               ))}
             </tbody>
           </table>
+          <p className="mt-2 text-xs text-graphite-500">Hot-spot allowance: {ref.data.hotSpot.source}.</p>
         </div>
         <div>
           <h3 className="mb-1 text-sm font-bold tracking-wide text-graphite-500 uppercase">Annealed copper (IEC 60028)</h3>
@@ -63,10 +66,11 @@ function ReferencePanel() {
             <dt className="text-graphite-600">Density</dt>
             <dd className="font-semibold">{formatNumber(cu.density / 1000, 2)}&nbsp;g/cm³</dd>
             <dt className="text-graphite-600">Copper temperature constant</dt>
-            <dd className="font-semibold">{k} (IEC 60034-1)</dd>
+            <dd className="font-semibold">{formatNumber(k, 1)} (IEEE Std 118; IEC 60034-1 rounds to 235)</dd>
           </dl>
           <p className="mt-3 text-sm text-graphite-600">
-            Hot resistance by the resistance method: R<sub>2</sub> = R<sub>1</sub> · ({k} + θ<sub>2</sub>) / ({k} + θ<sub>1</sub>), θ in °C.
+            Hot resistance by the resistance method: R<sub>2</sub> = R<sub>1</sub> · ({formatNumber(k, 1)} + θ<sub>2</sub>) / ({formatNumber(k, 1)} + θ<sub>1</sub>), θ in °C — the same line as α, so the
+            design and the bench agree. Aluminium (61&nbsp;% IACS): {formatNumber(ref.data.conductors.aluminium.resistanceMethodK, 1)}.
           </p>
         </div>
       </div>

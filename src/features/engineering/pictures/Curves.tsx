@@ -89,3 +89,27 @@ export function WarmUpPlot({
     />
   );
 }
+
+/** The iron's B–H curve (or the linear model and its cap) with the corners' operating points. */
+export function BHPlot({ bh, u: _u }: { bh: NonNullable<CoilProfileResponse['bh']>; u: UnitFormatters }) {
+  const hMax = Math.max(...bh.curve.map((p) => p.H));
+  const kilo = hMax >= 5000;
+  const x = (H: number) => (kilo ? H / 1000 : H);
+  const nominal = bh.points.find((p) => p.corner === 'nominal');
+  const names: Record<string, string> = { low: 'low', nominal: 'nominal', high: 'high' };
+  return (
+    <Plot
+      testId="picture-bh"
+      title={`Iron: ${bh.model === 'curve' ? 'B–H curve' : 'linear µr, capped at saturation'} and the operating points`}
+      xLabel={`Field strength in the iron H, ${kilo ? 'kA/m' : 'A/m'}`}
+      yLabel="Flux density B, T"
+      series={[{ id: 'bh', points: bh.curve.map((p) => ({ x: x(p.H), y: p.B })), label: bh.model === 'curve' ? 'B–H curve' : 'linear model' }]}
+      yMarks={[{ at: bh.knee, label: `${bh.model === 'curve' ? 'knee' : 'saturation'} ${formatNumber(bh.knee, 2)} T`, tone: 'limit' }]}
+      markers={bh.points.map((p) => ({ x: x(p.H), y: p.B, label: names[p.corner] }))}
+      xInclude={[0]}
+      yInclude={[0]}
+      summary={`B–H picture: the nominal point at ${formatNumber(nominal?.B ?? 0, 3)} T and ${formatNumber(x(nominal?.H ?? 0), kilo ? 2 : 0)} ${kilo ? 'kA/m' : 'A/m'}, the ${bh.model === 'curve' ? 'knee' : 'saturation'} at ${formatNumber(bh.knee, 2)} T.`}
+      footer={<p className="text-xs text-graphite-500">Operating points at the low, nominal and high corners (hot). Past the knee more ampere-turns add little flux, only heat.</p>}
+    />
+  );
+}

@@ -46,6 +46,8 @@ type PlotProps = {
   yInclude?: number[];
   /** Points drawn as dots (e.g. saturated points), with their legend text. */
   dots?: { points: Point[]; label: string };
+  /** Named points (e.g. operating points), drawn as rings with their names. */
+  markers?: (Point & { label: string })[];
   footer?: ReactNode;
   /** For tests and screen readers: a sentence saying what the picture shows. */
   summary: string;
@@ -56,9 +58,9 @@ const W = 560;
 const H = 300;
 const M = { left: 64, right: 18, top: 26, bottom: 50 };
 
-export function Plot({ title, xLabel, yLabel, series, xMarks = [], yMarks = [], xInclude = [], yInclude = [], dots, footer, summary, testId }: PlotProps) {
+export function Plot({ title, xLabel, yLabel, series, xMarks = [], yMarks = [], xInclude = [], yInclude = [], dots, markers = [], footer, summary, testId }: PlotProps) {
   const clip = useId();
-  const all = series.flatMap((s) => s.points).concat(dots?.points ?? []);
+  const all = series.flatMap((s) => s.points).concat(dots?.points ?? [], markers);
   const xs = all.map((p) => p.x).concat(xInclude, xMarks.map((m) => m.at));
   const ys = all.map((p) => p.y).concat(yInclude, yMarks.map((m) => m.at));
   const xt = niceTicks(Math.min(...xs), Math.max(...xs), 6);
@@ -122,6 +124,26 @@ export function Plot({ title, xLabel, yLabel, series, xMarks = [], yMarks = [], 
             <rect key={i} x={sx(p.x) - 3.5} y={sy(p.y) - 3.5} width="7" height="7" fill="#a8261f" transform={`rotate(45 ${sx(p.x)} ${sy(p.y)})`} />
           ))}
         </g>
+        {markers.map((m, i) => (
+          <g key={`mk${i}`} data-marker={m.label}>
+            <circle cx={sx(m.x)} cy={sy(m.y)} r="5.5" fill="#fbfbfc" stroke="#1f2326" strokeWidth="2" />
+            <circle cx={sx(m.x)} cy={sy(m.y)} r="2" fill="#1f2326" />
+            {/* Names fan out (below-right, right, above-left …) so close points stay readable. */}
+            <text
+              x={sx(m.x) + [10, 12, -10][i % 3]}
+              y={sy(m.y) + [16, 4, -9][i % 3]}
+              textAnchor={i % 3 === 2 ? 'end' : 'start'}
+              fontSize="12"
+              fontWeight="600"
+              fill="#1f2326"
+              paintOrder="stroke"
+              stroke="#fbfbfc"
+              strokeWidth="3"
+            >
+              {m.label}
+            </text>
+          </g>
+        ))}
         {/* mark labels outside the clip, kept inside the frame */}
         {yMarks.map((m, i) => {
           const y = sy(m.at);
