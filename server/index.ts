@@ -24,7 +24,8 @@ const server = app.listen(cfg.port, cfg.host, () => {
     ];
     console.log(lines.join('\n'));
   } else {
-    console.log(`Spoolwright API listening on http://${cfg.host}:${cfg.port}`);
+    // The node flags show how it runs: the compiled build (npm run start:prod) needs no TypeScript loader.
+    console.log(`Spoolwright API listening on http://${cfg.host}:${cfg.port} (node ${process.version}, flags: ${process.execArgv.join(' ') || 'none'})`);
   }
 });
 server.on('error', (e) => {
