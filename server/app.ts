@@ -12,6 +12,8 @@ import { healthRouter } from './health/router';
 import { requireCsrfHeader } from './http/csrf';
 import { bearerAuth, requirePasswordChange, unlessToken } from './http/bearer';
 import { tokensRouter } from './tokens/router';
+import { createMetrics } from './metrics/metrics';
+import { metricsRouter } from './metrics/router';
 import { apiNotFound, errorHandler } from './http/errors';
 import { usersRouter } from './users/router';
 import { customersRouter } from './customers/router';
@@ -81,6 +83,10 @@ export function createApp(deps: Deps, opts: { serveClient?: boolean } = {}) {
       },
     }),
   );
+
+  const metrics = createMetrics(deps);
+  app.use(metrics.observe);
+  app.use(metricsRouter(deps.db, metrics));
 
   const passport = configurePassport(deps.db);
   const api = Router();
