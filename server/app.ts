@@ -12,6 +12,7 @@ import { healthRouter } from './health/router';
 import { requireCsrfHeader } from './http/csrf';
 import { bearerAuth, requirePasswordChange, unlessToken } from './http/bearer';
 import { tokensRouter } from './tokens/router';
+import { importsRouter } from './imports/router';
 import { createMetrics } from './metrics/metrics';
 import { metricsRouter } from './metrics/router';
 import { apiNotFound, errorHandler } from './http/errors';
@@ -55,6 +56,7 @@ export function apiRouters(deps: Deps): Router[] {
     shipmentsRouter(deps),
     portalRouter(deps),
     tokensRouter(deps.db),
+    importsRouter(deps.db),
   ];
 }
 
