@@ -13,6 +13,7 @@ import { requireCsrfHeader } from './http/csrf';
 import { bearerAuth, requirePasswordChange, unlessToken } from './http/bearer';
 import { tokensRouter } from './tokens/router';
 import { importsRouter } from './imports/router';
+import { openApiRouter } from './openapi/router';
 import { createMetrics } from './metrics/metrics';
 import { metricsRouter } from './metrics/router';
 import { apiNotFound, errorHandler } from './http/errors';
@@ -57,6 +58,7 @@ export function apiRouters(deps: Deps): Router[] {
     portalRouter(deps),
     tokensRouter(deps.db),
     importsRouter(deps.db),
+    openApiRouter(deps.config),
   ];
 }
 
