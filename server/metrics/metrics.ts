@@ -66,15 +66,15 @@ export function createMetrics(deps: Deps) {
     name: 'spoolwright_outbox_oldest_unsent_age_seconds',
     help: 'Age of the oldest outbox row not sent yet (0 when none waits)',
     registers: [registry],
-    async collect() {
-      const r = await deps.db.execute<{ n: string; age: string | null }>(
-        sql`select count(*)::bigint as n, extract(epoch from now() - min(created_at))::float8 as age from notifications where status in ('pending', 'sending')`,
-      );
-      outboxRows.set(Number(r.rows[0].n));
-      this.set(Number(r.rows[0].age ?? 0));
-    },
   });
-  void outboxAge;
+  /** Both outbox figures from one query, read before the registry renders. */
+  async function readOutbox() {
+    const r = await deps.db.execute<{ n: string; age: string | null }>(
+      sql`select count(*)::bigint as n, extract(epoch from now() - min(created_at))::float8 as age from notifications where status in ('pending', 'sending')`,
+    );
+    outboxRows.set(Number(r.rows[0].n));
+    outboxAge.set(Number(r.rows[0].age ?? 0));
+  }
 
   new Gauge({
     name: 'spoolwright_db_pool_connections',
@@ -110,6 +110,7 @@ export function createMetrics(deps: Deps) {
     const up = await deps.redis.ping().then(() => 1, () => 0);
     queueUp.set(up);
     try {
+      await readOutbox();
       return { contentType: registry.contentType, body: await registry.metrics() };
     } catch {
       scrapeErrors.inc();

@@ -107,7 +107,7 @@ describe('importing spools and open orders in the user’s units', () => {
     expect(tpl.text.split('\r\n')[0]).toContain('net_mass_lb');
 
     // 22.046 lb = 10.000 kg (1 lb = 0.45359237 kg exactly, NIST SP 811 appendix B).
-    const spools = `${tpl.text.trim()}\r\ncopper,AWG,30,,2,Import Wire Co,IMP-${tag},22.046,Rack Z,2024-01-05\r\ncopper,AWG,30,,2,Import Wire Co,IMP2-${tag},5000,Rack Z,\r\n`;
+    const spools = `${tpl.text.trim()}\r\naluminium,AWG,25,,1,Import Wire Co,IMP-${tag},22.046,Rack Z,2024-01-05\r\naluminium,AWG,25,,1,Import Wire Co,IMP2-${tag},5000,Rack Z,\r\n`;
     const dry = await send(inch, '/api/imports/spools/dry-run', spools);
     expect(dry.body.rows[0].problems).toEqual([]);
     expect(dry.body.rows[0].creates).toMatch(/22\.05\slb/);
