@@ -39,7 +39,9 @@ export type ScreenId =
   | 'testBench'
   | 'workOrderTests'
   | 'quality'
-  | 'designFeedback';
+  | 'designFeedback'
+  | 'imports'
+  | 'integrations';
 
 /** Who reads orders (a customer only its own company's: the server filters). */
 const ORDER_READERS: readonly Role[] = ['office', 'engineer', 'foreman', 'shipping', 'admin', 'customer'];
@@ -114,6 +116,8 @@ export const SCREENS: readonly Screen[] = [
   { id: 'users', path: '/users', label: 'Users', roles: ['admin'], inNav: true, group: 'admin' },
   { id: 'outbox', path: '/outbox', label: 'Outbox', roles: ['admin'], inNav: true, group: 'admin' },
   { id: 'settings', path: '/settings', label: 'Settings', roles: ['admin'], inNav: true, group: 'admin' },
+  { id: 'imports', path: '/imports', label: 'Import', roles: ORDER_WRITERS, inNav: true, group: 'sales' },
+  { id: 'integrations', path: '/integrations', label: 'API and tokens', roles: ['admin'], inNav: true, group: 'admin' },
 ];
 
 export function screen(id: ScreenId): Screen {
