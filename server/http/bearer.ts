@@ -31,11 +31,11 @@ export const unlessToken =
   (req, res, next) =>
     isTokenRequest(req) ? next() : inner(req, res, next);
 
-const OPEN_WHILE_CHANGE_REQUIRED = new Set(['GET /auth/me', 'POST /auth/logout', 'POST /auth/password']);
+const OPEN_WHILE_CHANGE_REQUIRED = new Set(['GET /auth/me', 'POST /auth/logout', 'POST /auth/password', 'PATCH /me']);
 
 /**
  * A user who must change their password (the first admin after `npm run setup`) may only read
- * who they are, sign out and change it; every other route answers 403 `password_change_required`.
+ * who they are, choose their units, sign out and change it; every other route answers 403 `password_change_required`.
  */
 export const requirePasswordChange: RequestHandler = (req, _res, next) => {
   const user = req.user as SessionUser | undefined;

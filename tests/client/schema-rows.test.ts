@@ -1,11 +1,12 @@
 /** The API page's field tables: a JSON Schema (OpenAPI 3.1's dialect) flattened into rows. */
 import { describe, expect, it } from 'vitest';
+import type { JsonSchema } from '../../src/features/integrations/api';
 import { schemaRows } from '../../src/features/integrations/schemaRows';
 
 describe('schemaRows', () => {
   it('opens objects, lists and unions into dotted names with their rules', () => {
     // Written by hand in the shape JSON Schema 2020-12 gives such a body.
-    const schema = {
+    const schema: JsonSchema = {
       type: 'object',
       required: ['name', 'lines'],
       properties: {
