@@ -48,7 +48,7 @@ export async function commit(db: Db, kind: ImportKind, file: Buffer, user: Sessi
   const { report, items } = await check(db, kind, file, user);
   if (!report.ok) {
     const bad = report.rows.filter((r) => r.problems.length).length;
-    throw new HttpError(422, 'rule', bad ? `${bad} rows need attention; nothing was imported` : 'The file cannot be imported; nothing was imported', undefined, { report });
+    throw new HttpError(422, 'rule', bad ? `${bad} ${bad === 1 ? 'row needs' : 'rows need'} attention; nothing was imported` : 'The file cannot be imported; nothing was imported', undefined, { report });
   }
   const imp = IMPORTS[kind] as (typeof IMPORTS)[ImportKind] & { create(tx: unknown, input: unknown, actor: SessionUser): Promise<number> };
   const ids = await db.transaction(async (tx) => {

@@ -2,7 +2,11 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { afterAll, describe, expect, it } from 'vitest';
+import { loadConfig } from '../../server/config';
 import { ROOT, runScript } from './helpers';
+
+/** The test run's own database, Redis and bucket (the defaults when the environment names none). */
+const testConfig = loadConfig({ ...process.env, NODE_ENV: 'test' });
 
 const children: ChildProcess[] = [];
 afterAll(() => {
@@ -58,10 +62,10 @@ describe('the compiled build', () => {
       PORT: String(port),
       PUBLIC_URL: `http://127.0.0.1:${port}`,
       SESSION_SECRET: 'a production secret for this test only',
-      DATABASE_URL: process.env.DATABASE_URL!,
-      REDIS_URL: process.env.REDIS_URL!,
-      SMTP_URL: 'smtp://127.0.0.1:1025',
-      S3_BUCKET: process.env.S3_BUCKET!,
+      DATABASE_URL: testConfig.databaseUrl,
+      REDIS_URL: testConfig.redisUrl,
+      SMTP_URL: testConfig.smtpUrl,
+      S3_BUCKET: testConfig.s3.bucket,
       S3_ENDPOINT: 'http://127.0.0.1:4568',
       S3_ACCESS_KEY_ID: 'S3RVER',
       S3_SECRET_ACCESS_KEY: 'S3RVER',

@@ -63,7 +63,7 @@ describe('npm run setup on a fresh database', () => {
       NODE_ENV: 'production',
       DATABASE_URL: DB,
       SESSION_SECRET: 'a production secret of some length',
-      REDIS_URL: 'redis://127.0.0.1:56379/5',
+      REDIS_URL: loadConfig({ ...process.env, NODE_ENV: 'test' }).redisUrl,
       SMTP_URL: 'smtp://127.0.0.1:1025',
       S3_BUCKET: 'spoolwright-prod-setup-test',
       PUBLIC_URL: 'https://coils.example',
