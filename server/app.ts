@@ -80,7 +80,7 @@ export function createApp(deps: Deps, opts: { serveClient?: boolean } = {}) {
   app.use(
     pinoHttp({
       level: config.logLevel,
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
+      autoLogging: { ignore: (req) => req.url === '/api/health' || req.url === '/metrics' },
       serializers: {
         req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
