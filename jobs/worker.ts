@@ -3,9 +3,18 @@ import { config } from '../server/config';
 import { createDeps } from '../server/deps';
 import { startWorkers } from './runtime';
 
-const deps = createDeps(config());
+let cfg: ReturnType<typeof config>;
+try {
+  cfg = config();
+} catch (e) {
+  console.error((e as Error).message);
+  process.exit(1);
+}
+const deps = createDeps(cfg);
 const running = startWorkers(deps, { log: (m) => console.log(`worker: ${m}`) });
-console.log('Spoolwright worker started (queues: mail, travelers, documents; outbox dispatcher on)');
+console.log(
+  `Spoolwright worker started (queues: mail, travelers, documents; outbox dispatcher on; node ${process.version}, pid ${process.pid}, flags: ${process.execArgv.join(' ') || 'none'})`,
+);
 
 /** Stopping: running jobs finish first (BullMQ's close waits for them), then the connections close. */
 let stopping = false;

@@ -16,6 +16,10 @@ if (!['migrate', 'seed', 'reset'].includes(cmd)) {
   console.error('usage: tsx scripts/db.ts migrate|seed|reset');
   process.exit(2);
 }
+if ((cmd === 'seed' || cmd === 'reset') && config.production) {
+  console.error('db: the demo shop is never seeded with NODE_ENV=production (create the first admin with npm run setup)');
+  process.exit(2);
+}
 if (cmd === 'reset' && config.env !== 'test') {
   console.error('db reset only runs with NODE_ENV=test');
   process.exit(2);

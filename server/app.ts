@@ -7,8 +7,15 @@ import { createLoginLimiter } from './auth/limiter';
 import { authRouter } from './auth/router';
 import { configurePassport, sessionMiddleware } from './auth/session';
 import type { Deps } from './deps';
+import { PROJECT_ROOT } from './paths';
 import { healthRouter } from './health/router';
 import { requireCsrfHeader } from './http/csrf';
+import { bearerAuth, requirePasswordChange, unlessToken } from './http/bearer';
+import { tokensRouter } from './tokens/router';
+import { importsRouter } from './imports/router';
+import { openApiRouter } from './openapi/router';
+import { createMetrics } from './metrics/metrics';
+import { metricsRouter } from './metrics/router';
 import { apiNotFound, errorHandler } from './http/errors';
 import { usersRouter } from './users/router';
 import { customersRouter } from './customers/router';
@@ -27,7 +34,7 @@ import { testRecordsRouter } from './test-records/router';
 import { portalRouter, shipmentsRouter } from './shipments/router';
 
 /** The built client; CLIENT_DIR (relative to the project) lets parallel work trees' browser tests use their own build. */
-const clientDir = path.resolve(import.meta.dirname, '..', process.env.CLIENT_DIR ?? path.join('dist', 'client'));
+const clientDir = path.resolve(PROJECT_ROOT, process.env.CLIENT_DIR ?? path.join('dist', 'client'));
 
 /** The routers of every business component, mounted under /api. Add new features here. */
 export function apiRouters(deps: Deps): Router[] {
@@ -49,6 +56,9 @@ export function apiRouters(deps: Deps): Router[] {
     testRecordsRouter(deps.db),
     shipmentsRouter(deps),
     portalRouter(deps),
+    tokensRouter(deps.db),
+    importsRouter(deps.db),
+    openApiRouter(deps.config),
   ];
 }
 
@@ -70,7 +80,7 @@ export function createApp(deps: Deps, opts: { serveClient?: boolean } = {}) {
   app.use(
     pinoHttp({
       level: config.logLevel,
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
+      autoLogging: { ignore: (req) => req.url === '/api/health' || req.url === '/metrics' },
       serializers: {
         req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
@@ -78,13 +88,19 @@ export function createApp(deps: Deps, opts: { serveClient?: boolean } = {}) {
     }),
   );
 
+  const metrics = createMetrics(deps);
+  app.use(metrics.observe);
+  app.use(metricsRouter(deps.db, metrics));
+
   const passport = configurePassport(deps.db);
   const api = Router();
   api.use(express.json({ limit: '1mb' }));
+  api.use(bearerAuth(deps.db));
   api.use(requireCsrfHeader);
-  api.use(sessionMiddleware(deps.pool, config.sessionSecret, config.trustProxy));
-  api.use(passport.session());
-  api.use(authRouter(passport, createLoginLimiter(deps.redis)));
+  api.use(unlessToken(sessionMiddleware(deps.pool, config.sessionSecret, config.trustProxy)));
+  api.use(unlessToken(passport.session()));
+  api.use(requirePasswordChange);
+  api.use(authRouter(passport, createLoginLimiter(deps.redis), deps.db));
   for (const r of apiRouters(deps)) api.use(r);
   api.use(apiNotFound);
   app.use('/api', api);

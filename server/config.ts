@@ -76,6 +76,10 @@ const schema = z.object({
 
 export type Config = ReturnType<typeof loadConfig>;
 
+const DEV_SESSION_SECRET = 'spoolwright-local-development-secret';
+/** What a production process must be told: the secrets and the real services' addresses. */
+export const PRODUCTION_REQUIRED = ['SESSION_SECRET', 'DATABASE_URL', 'REDIS_URL', 'SMTP_URL', 'S3_BUCKET', 'PUBLIC_URL'] as const;
+
 /** Reads and validates the environment once; refuses to start on a bad value, naming it. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
   const parsed = schema.safeParse(env);
@@ -86,7 +90,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
   const c = parsed.data;
   const production = c.NODE_ENV === 'production';
   const usesLocalS3 = !c.S3_ENDPOINT || c.S3_ENDPOINT === defaults.S3_ENDPOINT;
-  if (production && !c.SESSION_SECRET) throw new Error('Invalid configuration:\n  SESSION_SECRET: required in production');
+  if (production) {
+    // Production never falls back to the local stand-ins or the development secret.
+    const missing = PRODUCTION_REQUIRED.filter((k) => !env[k]);
+    if (missing.length) throw new Error(`Invalid configuration:\n${missing.map((k) => `  ${k}: required in production`).join('\n')}`);
+    if (c.SESSION_SECRET === DEV_SESSION_SECRET) throw new Error('Invalid configuration:\n  SESSION_SECRET: choose your own secret, not the development one');
+  }
   return {
     env: c.NODE_ENV,
     production,
@@ -106,7 +115,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
       secretAccessKey: c.S3_SECRET_ACCESS_KEY ?? (usesLocalS3 && !production ? LOCAL.s3.secretAccessKey : undefined),
       forcePathStyle: c.S3_FORCE_PATH_STYLE ?? usesLocalS3,
     },
-    sessionSecret: c.SESSION_SECRET ?? 'spoolwright-local-development-secret',
+    sessionSecret: c.SESSION_SECRET ?? DEV_SESSION_SECRET,
     trustProxy: c.TRUST_PROXY,
     logLevel: c.LOG_LEVEL ?? (c.NODE_ENV === 'test' ? 'silent' : 'info'),
   };

@@ -1,10 +1,17 @@
 import { ROLES } from '../src/contracts/roles';
 import { createApp } from './app';
-import { config } from './config';
+import { config, type Config } from './config';
 import { createDeps } from './deps';
 import { DEMO_PASSWORD, demoEmail } from './seed/demo';
 
-const cfg = config();
+let cfg: Config;
+try {
+  cfg = config();
+} catch (e) {
+  // A bad or missing setting: say which, without a stack trace.
+  console.error((e as Error).message);
+  process.exit(1);
+}
 const deps = createDeps(cfg);
 await deps.storage.ensureBucket().catch((e) => console.error(`object store: ${e.message}`));
 const app = createApp(deps, { serveClient: true });
@@ -19,12 +26,13 @@ const server = app.listen(cfg.port, cfg.host, () => {
       `  Demo sign-ins (password: ${DEMO_PASSWORD})`,
       ...ROLES.map((r) => `    ${r.padEnd(9)} ${demoEmail(r)}`),
       '',
-      '  Ctrl-C stops the app; `npm run stop` stops the local services.',
+      '  Ctrl-C stops the app; `npm run stop` stops the app and then the local services.',
       '',
     ];
     console.log(lines.join('\n'));
   } else {
-    console.log(`Spoolwright API listening on http://${cfg.host}:${cfg.port}`);
+    // The node flags show how it runs: the compiled build (npm run start:prod) needs no TypeScript loader.
+    console.log(`Spoolwright API listening on http://${cfg.host}:${cfg.port} (node ${process.version}, pid ${process.pid}, flags: ${process.execArgv.join(' ') || 'none'})`);
   }
 });
 server.on('error', (e) => {

@@ -2,8 +2,9 @@ import { migrate } from 'drizzle-orm/node-postgres/migrator';
 import path from 'node:path';
 import pg from 'pg';
 import type { Db } from './client';
+import { PROJECT_ROOT } from '../paths';
 
-export const MIGRATIONS_FOLDER = path.resolve(import.meta.dirname, '..', '..', 'drizzle');
+export const MIGRATIONS_FOLDER = path.join(PROJECT_ROOT, 'drizzle');
 
 /** Creates the database named in the URL when it does not exist (local and test runs). */
 export async function ensureDatabase(databaseUrl: string) {

@@ -76,6 +76,8 @@ export const users = pgTable(
     lengthUnit: lengthUnitEnum('length_unit').notNull().default('mm'),
     temperatureUnit: temperatureUnitEnum('temperature_unit').notNull().default('C'),
     lastLoginAt: timestamp('last_login_at', { withTimezone: true }),
+    /** Set for an account whose password someone else chose (the first admin from `npm run setup`): every other route refuses until it is changed. */
+    mustChangePassword: boolean('must_change_password').notNull().default(false),
     ...timestamps,
   },
   (t) => [uniqueIndex('users_email_unique').on(sql`lower(${t.email})`), index('users_customer_idx').on(t.customerId)],
@@ -639,4 +641,32 @@ export const shipmentDocuments = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('shipment_documents_shipment_kind_unique').on(t.shipmentId, t.kind)],
+);
+
+// ── Integrations ───────────────────────────────────────────────────────────────────────────
+
+/**
+ * API tokens for other systems (an ERP, a label printer script): issued by an admin, acting in
+ * one role on behalf of the admin who issued it, revocable. Only the SHA-256 of the secret is kept;
+ * the secret is shown once when issued.
+ */
+export const apiTokens = pgTable(
+  'api_tokens',
+  {
+    id: serial('id').primaryKey(),
+    name: varchar('name', { length: 80 }).notNull(),
+    role: roleEnum('role').notNull(),
+    /** SHA-256 of the whole secret, hex. */
+    tokenHash: char('token_hash', { length: 64 }).notNull(),
+    /** The secret's first characters, to tell tokens apart in lists and logs. */
+    prefix: varchar('prefix', { length: 16 }).notNull(),
+    issuedBy: integer('issued_by')
+      .notNull()
+      .references(() => users.id, { onDelete: 'restrict' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    lastUsedAt: timestamp('last_used_at', { withTimezone: true }),
+    revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    revokedBy: integer('revoked_by').references(() => users.id, { onDelete: 'set null' }),
+  },
+  (t) => [uniqueIndex('api_tokens_hash_unique').on(t.tokenHash)],
 );

@@ -4,7 +4,7 @@ import type { SessionUser } from '../../src/contracts/auth';
 import { HttpError } from './errors';
 
 /** Marks a handler with the rule it enforces, so a test can walk every route and find it. */
-export type RuleHandler = RequestHandler & { accessRule: { public: true } | { roles: readonly Role[] } };
+export type RuleHandler = RequestHandler & { accessRule: { public: true } | { roles: readonly Role[]; loopback?: true } };
 
 /** Admits signed-in users whose role is listed; 401 when signed out, 403 for other roles. */
 export function allow(...roles: Role[]): RuleHandler {
@@ -42,3 +42,21 @@ export const handle =
   async (req, res) => {
     await fn(req, res);
   };
+
+/** A request made on this machine, not through a proxy (a forwarded request is never loopback). */
+export function isDirectLoopback(req: Request): boolean {
+  if (req.get('x-forwarded-for') || req.get('forwarded')) return false;
+  const a = req.socket.remoteAddress ?? '';
+  return a === '::1' || a.startsWith('127.') || a.startsWith('::ffff:127.');
+}
+
+/**
+ * Admits a request from this machine itself (a scraper beside the app), or one signed in with one
+ * of the roles (an API token: routes outside /api read no session); 401 / 403 otherwise.
+ */
+export function allowLoopbackOr(...roles: Role[]): RuleHandler {
+  const inner = allow(...roles);
+  const handler = ((req: Request, res: Response, next: NextFunction) => (isDirectLoopback(req) ? next() : inner(req, res, next))) as RuleHandler;
+  handler.accessRule = { roles, loopback: true };
+  return handler;
+}

@@ -1,4 +1,4 @@
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, ne, sql } from 'drizzle-orm';
 import type { Db, Tx } from '../db/client';
 import { customers, sessions, users } from '../db/schema';
 
@@ -26,9 +26,10 @@ export async function lockActiveAdmins(tx: Tx) {
   return rows.map((r) => r.id);
 }
 
-/** Ends every session of a user (after deactivation or a password reset). */
-export async function deleteSessionsOf(db: Db | Tx, userId: number) {
-  await db.delete(sessions).where(sql`(${sessions.sess}::jsonb -> 'passport' ->> 'user') = ${String(userId)}`);
+/** Ends every session of a user (after deactivation or a password reset), but `keepSid` when given. */
+export async function deleteSessionsOf(db: Db | Tx, userId: number, keepSid?: string) {
+  const own = sql`(${sessions.sess}::jsonb -> 'passport' ->> 'user') = ${String(userId)}`;
+  await db.delete(sessions).where(keepSid ? and(own, ne(sessions.sid, keepSid)) : own);
 }
 
 export function customerExists(db: Db | Tx, id: number) {

@@ -1,7 +1,7 @@
 import bcrypt from 'bcryptjs';
-import { eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import type { SessionUser } from '../../src/contracts/auth';
-import type { CreateUserRequest, UpdatePreferencesRequest, UpdateUserRequest, UserRecord } from '../../src/contracts/users';
+import type { ChangePasswordRequest, CreateUserRequest, FirstAdminInput, UpdatePreferencesRequest, UpdateUserRequest, UserRecord } from '../../src/contracts/users';
 import type { Db } from '../db/client';
 import { users } from '../db/schema';
 import { HttpError, notFound, ruleBroken } from '../http/errors';
@@ -21,6 +21,7 @@ export function toSessionUser(u: repo.UserRow): SessionUser {
     customerId: u.customerId,
     lengthUnit: u.lengthUnit,
     temperatureUnit: u.temperatureUnit,
+    ...(u.mustChangePassword && { mustChangePassword: true }),
   };
 }
 
@@ -134,4 +135,46 @@ export async function updatePreferences(db: Db, id: number, input: UpdatePrefere
   const [row] = await db.update(users).set({ ...input, updatedAt: new Date() }).where(eq(users.id, id)).returning();
   if (!row) throw notFound('No such user');
   return toSessionUser(row);
+}
+
+/**
+ * The first admin of an installation (`npm run setup`): refused when any admin exists already.
+ * The password was chosen by whoever ran the set-up, so the first sign-in must change it.
+ * A transaction-scoped advisory lock keeps two set-ups at once from both creating one.
+ */
+export async function createFirstAdmin(db: Db, input: FirstAdminInput): Promise<SessionUser> {
+  const passwordHash = await hashPassword(input.password);
+  return db.transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext('spoolwright.first-admin'))`);
+    const [existing] = await tx.select({ email: users.email }).from(users).where(eq(users.role, 'admin')).limit(1);
+    if (existing) throw new HttpError(409, 'conflict', `An admin exists already (${existing.email}); sign in as that admin to add users`);
+    if (await repo.findUserByEmail(tx, input.email)) {
+      throw new HttpError(409, 'conflict', 'A user with this e-mail address exists already', { email: 'Already in use' });
+    }
+    const [row] = await tx
+      .insert(users)
+      .values({ email: input.email, name: input.name, role: 'admin', passwordHash, mustChangePassword: true })
+      .returning();
+    return toSessionUser(row);
+  });
+}
+
+/** A signed-in user changes their own password (the current one is checked); clears the forced change and ends their other sessions. */
+export async function changeOwnPassword(db: Db, id: number, input: ChangePasswordRequest, keepSessionId?: string): Promise<SessionUser> {
+  const user = await repo.findUserById(db, id);
+  if (!user || !user.active) throw notFound('No such user');
+  if (!(await bcrypt.compare(input.currentPassword, user.passwordHash))) {
+    throw new HttpError(400, 'validation', 'The current password is not right', { currentPassword: 'Not right' });
+  }
+  const passwordHash = await hashPassword(input.newPassword);
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .update(users)
+      .set({ passwordHash, mustChangePassword: false, updatedAt: new Date() })
+      .where(and(eq(users.id, id), eq(users.passwordHash, user.passwordHash)))
+      .returning();
+    if (!row) throw new HttpError(409, 'conflict', 'The password was changed meanwhile; sign in again');
+    await repo.deleteSessionsOf(tx, id, keepSessionId);
+    return toSessionUser(row);
+  });
 }

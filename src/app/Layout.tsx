@@ -1,6 +1,6 @@
 import { Outlet, useNavigation } from 'react-router';
 import { Brand } from '../components/Brand';
-import { UserMenu } from '../features/auth';
+import { ChangePasswordPage, UserMenu } from '../features/auth';
 import { useCurrentUser } from '../lib/session';
 import { MainNav } from './Nav';
 import { TOUCH_ROLES } from './screens';
@@ -18,13 +18,13 @@ export function Layout() {
       <header className="border-b-[3px] border-copper-500 bg-graphite-900 text-graphite-100">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
           <Brand />
-          <MainNav role={user.role} touch={touch} />
+          {!user.mustChangePassword && <MainNav role={user.role} touch={touch} />}
           <UserMenu touch={touch} />
         </div>
         <div aria-hidden className={`h-0.5 bg-copper-400 transition-opacity ${navigation.state === 'loading' ? 'animate-pulse opacity-100' : 'opacity-0'}`} />
       </header>
       <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6">
-        <Outlet />
+        {user.mustChangePassword ? <ChangePasswordPage /> : <Outlet />}
       </main>
       <footer className="border-t border-graphite-200 py-3 text-center text-xs text-graphite-500">
         Spoolwright — job tracking for coil winding

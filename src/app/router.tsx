@@ -63,6 +63,8 @@ export const router = createBrowserRouter([
           { path: 'work-orders/:id/tests', loader: requireScreen('workOrderTests'), lazy: () => import('../features/quality/workOrderTestsRoute') },
           { path: 'quality', loader: requireScreen('quality'), lazy: () => import('../features/quality/qualityRoute') },
           { path: 'quality/design', loader: requireScreen('designFeedback'), lazy: () => import('../features/quality/designRoute') },
+          { path: 'imports', loader: requireScreen('imports'), lazy: () => import('../features/imports/routes') },
+          { path: 'integrations', loader: requireScreen('integrations'), lazy: () => import('../features/integrations/routes') },
           { path: '*', Component: NotFound },
         ],
       },

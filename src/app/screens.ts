@@ -39,7 +39,9 @@ export type ScreenId =
   | 'testBench'
   | 'workOrderTests'
   | 'quality'
-  | 'designFeedback';
+  | 'designFeedback'
+  | 'imports'
+  | 'integrations';
 
 /** Who reads orders (a customer only its own company's: the server filters). */
 const ORDER_READERS: readonly Role[] = ['office', 'engineer', 'foreman', 'shipping', 'admin', 'customer'];
@@ -91,6 +93,7 @@ export const SCREENS: readonly Screen[] = [
   { id: 'customerNew', path: '/customers/new', label: 'New customer', roles: ORDER_WRITERS, inNav: false },
   { id: 'customer', path: '/customers/:id', label: 'Customer', roles: CUSTOMER_READERS, inNav: false },
   { id: 'customerEdit', path: '/customers/:id/edit', label: 'Edit customer', roles: ORDER_WRITERS, inNav: false },
+  { id: 'imports', path: '/imports', label: 'Import', roles: ORDER_WRITERS, inNav: true, group: 'sales' },
   { id: 'engineering', path: '/engineering', label: 'Engineering', roles: SHEET_READERS, inNav: true, group: 'engineering' },
   { id: 'engineeringLine', path: '/engineering/lines/:id', label: 'Order line', roles: SHEET_READERS, inNav: false },
   { id: 'spools', path: '/stock', label: 'Wire stock', roles: SHEET_READERS, inNav: true, group: 'engineering' },
@@ -114,6 +117,7 @@ export const SCREENS: readonly Screen[] = [
   { id: 'users', path: '/users', label: 'Users', roles: ['admin'], inNav: true, group: 'admin' },
   { id: 'outbox', path: '/outbox', label: 'Outbox', roles: ['admin'], inNav: true, group: 'admin' },
   { id: 'settings', path: '/settings', label: 'Settings', roles: ['admin'], inNav: true, group: 'admin' },
+  { id: 'integrations', path: '/integrations', label: 'API and tokens', roles: ['admin'], inNav: true, group: 'admin' },
 ];
 
 export function screen(id: ScreenId): Screen {

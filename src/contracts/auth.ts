@@ -24,6 +24,10 @@ export const sessionUser = z.object({
   customerId: z.number().int().nullable(),
   lengthUnit: z.enum(LENGTH_UNITS),
   temperatureUnit: z.enum(TEMPERATURE_UNITS),
+  /** true until the user chooses their own password (the first admin): every other route answers 403 `password_change_required`. */
+  mustChangePassword: z.boolean().optional(),
+  /** Present when the request came with an API token: it acts in the token's role on behalf of the admin who issued it. */
+  token: z.object({ id: z.number().int(), name: z.string() }).optional(),
 });
 export type SessionUser = z.infer<typeof sessionUser>;
 

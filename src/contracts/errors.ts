@@ -7,6 +7,8 @@ export const ERROR_CODES = [
   'unauthenticated',
   'forbidden',
   'csrf',
+  /** Signed in with a password someone else chose: change it first (POST /api/auth/password). */
+  'password_change_required',
   'not_found',
   'conflict',
   'rule',

@@ -9,6 +9,23 @@ const password = z
   .min(PASSWORD_MIN, `At least ${PASSWORD_MIN} characters`)
   .max(200, 'At most 200 characters');
 
+/** POST /api/auth/password — a signed-in user chooses a new password. */
+export const changePasswordRequest = z
+  .object({
+    currentPassword: z.string().min(1, 'Enter your current password'),
+    newPassword: password,
+  })
+  .refine((v) => v.newPassword !== v.currentPassword, { path: ['newPassword'], message: 'Choose a password different from the current one' });
+export type ChangePasswordRequest = z.infer<typeof changePasswordRequest>;
+
+/** The first admin of an empty installation (`npm run setup`). */
+export const firstAdminInput = z.object({
+  email: z.string().trim().toLowerCase().email('Not an e-mail address').max(254),
+  name: z.string().trim().min(1, 'Enter a name').max(120),
+  password,
+});
+export type FirstAdminInput = z.infer<typeof firstAdminInput>;
+
 export const userRecord = z.object({
   id: z.number().int(),
   email: z.string(),

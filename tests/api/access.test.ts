@@ -40,7 +40,7 @@ describe('every API route declares who may use it', () => {
   it('refuses every non-public route when signed out (401)', async () => {
     const failures: string[] = [];
     for (const r of routes) {
-      if (!r.rule || 'public' in r.rule) continue;
+      if (!r.rule || 'public' in r.rule || r.rule.loopback) continue;
       const res = await send(t.request(), r.method, concretePath(r.path));
       if (res.status !== 401 || res.body.error?.code !== 'unauthenticated') failures.push(`${r.method} ${r.path} → ${res.status}`);
     }
@@ -51,7 +51,7 @@ describe('every API route declares who may use it', () => {
     const failures: string[] = [];
     let checked = 0;
     for (const r of routes) {
-      if (!r.rule || 'public' in r.rule) continue;
+      if (!r.rule || 'public' in r.rule || r.rule.loopback) continue;
       const admitted = r.rule.roles;
       for (const role of ROLES.filter((x) => !admitted.includes(x))) {
         checked += 1;
@@ -61,5 +61,20 @@ describe('every API route declares who may use it', () => {
     }
     expect(checked).toBeGreaterThan(0);
     expect(failures).toEqual([]);
+  });
+
+  it('states the loopback rule of /metrics only, and enforces it: from elsewhere, an admin token only', async () => {
+    const loopback = routes.filter((r) => r.rule && 'roles' in r.rule && r.rule.loopback).map((r) => `${r.method} ${r.path} ${JSON.stringify(r.rule)}`);
+    expect(loopback).toEqual(['GET /metrics {"roles":["admin"],"loopback":true}']);
+    const admin = agents.admin;
+    const issue = async (role: Role) => (await admin.post('/api/tokens').set(csrf).send({ name: `metrics walk ${role}`, role })).body.secret as string;
+    const [adminToken, officeToken] = [await issue('admin'), await issue('office')];
+    // A forwarded request (through a proxy) is never the machine itself.
+    const away = { 'X-Forwarded-For': '203.0.113.7' };
+    expect((await t.request().get('/metrics')).status).toBe(200);
+    expect((await t.request().get('/metrics').set(away)).status).toBe(401);
+    expect((await admin.get('/metrics').set(away)).status).toBe(401); // a session cookie is not read outside /api
+    expect((await t.request().get('/metrics').set(away).set('Authorization', `Bearer ${officeToken}`)).status).toBe(403);
+    expect((await t.request().get('/metrics').set(away).set('Authorization', `Bearer ${adminToken}`)).status).toBe(200);
   });
 });

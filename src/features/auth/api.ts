@@ -1,5 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import { sessionResponse, type LoginRequest } from '../../contracts/auth';
+import type { ChangePasswordRequest } from '../../contracts/users';
 import { api } from '../../lib/api';
 import { queryClient } from '../../lib/queryClient';
 import { setSessionUser } from '../../lib/session';
@@ -21,6 +22,17 @@ export function useSignOut() {
     onSettled: () => {
       queryClient.clear();
       setSessionUser(null);
+    },
+  });
+}
+
+/** POST /api/auth/password: the signed-in user chooses a new password; the session then shows the user without the forced change. */
+export function useChangePassword() {
+  return useMutation({
+    mutationFn: (input: ChangePasswordRequest) => api.post('/auth/password', input, { schema: sessionResponse }),
+    onSuccess: ({ user }) => {
+      setSessionUser(user);
+      void queryClient.invalidateQueries({ predicate: (q) => q.queryKey[0] !== 'session' });
     },
   });
 }
