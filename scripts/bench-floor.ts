@@ -164,22 +164,23 @@ async function payloadOf(url: string, cookie: string) {
   return { bytes: body.length, gzip: gzipSync(body).length, body };
 }
 
-function hammer(url: string, cookie: string): Promise<{ times: number[]; result: autocannon.Result }> {
+function hammer(url: string, headers: Record<string, string>): Promise<{ times: number[]; result: autocannon.Result }> {
   return new Promise((resolve, reject) => {
     const times: number[] = [];
-    const inst = autocannon({ url, connections: CONNECTIONS, duration: DURATION, headers: cookie ? { cookie } : {}, timeout: 10 }, (err, result) =>
+    const inst = autocannon({ url, connections: CONNECTIONS, duration: DURATION, headers, timeout: 10 }, (err, result) =>
       err ? reject(err) : resolve({ times, result }),
     );
     inst.on('response', (_client: unknown, _status: number, _bytes: number, ms: number) => times.push(ms));
   });
 }
 
-async function measure(name: string, url: string, cookie: string, withPayload = true): Promise<Figures> {
-  const p = withPayload ? await payloadOf(url, cookie) : null;
+async function measure(name: string, url: string, cookie: string, opts: { payload?: boolean; headers?: Record<string, string> } = {}): Promise<Figures> {
+  const p = opts.payload === false ? null : await payloadOf(url, cookie);
+  const headers = { ...(cookie ? { cookie } : {}), ...opts.headers };
   // A short warm-up (JIT, connection pools, caches), then the run.
-  await new Promise<void>((resolve) => autocannon({ url, connections: 10, duration: 1, headers: cookie ? { cookie } : {} }, () => resolve()));
+  await new Promise<void>((resolve) => autocannon({ url, connections: 10, duration: 1, headers }, () => resolve()));
   await settle();
-  const { times, result } = await hammer(url, cookie);
+  const { times, result } = await hammer(url, headers);
   times.sort((a, b) => a - b);
   // Requests still running when the run ends must not spill into the next route's figures.
   await settle();
@@ -200,13 +201,13 @@ async function measure(name: string, url: string, cookie: string, withPayload = 
   return f;
 }
 
-/** Waits until the app answers its health check quickly again (at most 60 s). */
+/** Waits until the app answers its health check quickly again (at most about 20 s). */
 async function settle() {
   let quick = 0;
-  for (let i = 0; i < 600 && quick < 3; i++) {
+  for (let i = 0; i < 100 && quick < 2; i++) {
     const t = performance.now();
     await fetch(`http://127.0.0.1:${PORT}/api/health`).then((r) => r.arrayBuffer(), () => null);
-    quick = performance.now() - t < 25 ? quick + 1 : 0;
+    quick = performance.now() - t < 50 ? quick + 1 : 0;
     await new Promise((r) => setTimeout(r, 100));
   }
 }
@@ -262,10 +263,17 @@ const routes: [string, string][] = hasBoard
 
 console.log(`\n${open} work orders on the board; ${CONNECTIONS} connections, ${DURATION} s per route (${hasBoard ? 'board endpoint' : 'old list route: no /api/board'})\n`);
 const results: Figures[] = [];
-results.push(await measure('hello (plain Express, own process)', `http://127.0.0.1:${HELLO_PORT}/hello`, '', false));
+results.push(await measure('hello (plain Express, own process)', `http://127.0.0.1:${HELLO_PORT}/hello`, '', { payload: false }));
 results.push(await measure('GET /api/auth/me', `${base}/api/auth/me`, cookie));
 for (const [name, p] of routes) results.push(await measure(name, `${base}${p}`, cookie));
 results.push(await measure(`work order detail /api/work-orders/${detail.id}`, `${base}/api/work-orders/${detail.id}`, cookie));
+// How a browser asks: compressed, and (a screen that already holds the board) with its ETag.
+const gzip = { 'accept-encoding': 'gzip' };
+results.push(await measure(`${routes[0][0]} — gzip, as a browser asks`, `${base}${routes[0][1]}`, cookie, { headers: gzip }));
+if (hasBoard) {
+  const etag = (await fetch(`${base}${routes[0][1]}`, { headers: { cookie } })).headers.get('etag') ?? '';
+  results.push(await measure(`${routes[0][0]} — If-None-Match → 304`, `${base}${routes[0][1]}`, cookie, { headers: { ...gzip, 'if-none-match': etag } }));
+}
 
 // Unloaded: one request at a time on the idle server; "computed" forces the server to build the
 // answer again (a change on the feed empties the cache; here a request header asks for it).

@@ -52,6 +52,8 @@ const schema = z.object({
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
+  /** Where sessions live: redis (default) or postgres (the `session` table). */
+  SESSION_STORE: z.enum(['redis', 'postgres']).default('redis'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
 });
 
@@ -89,6 +91,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
     },
     sessionSecret: c.SESSION_SECRET ?? 'spoolwright-local-development-secret',
     trustProxy: c.TRUST_PROXY,
+    sessionStore: c.SESSION_STORE,
     logLevel: c.LOG_LEVEL ?? (c.NODE_ENV === 'test' ? 'silent' : 'info'),
   };
 }

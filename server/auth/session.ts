@@ -1,5 +1,7 @@
 import connectPgSimple from 'connect-pg-simple';
+import { RedisStore } from 'connect-redis';
 import session from 'express-session';
+import type { Redis } from 'ioredis';
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type pg from 'pg';
@@ -12,17 +14,28 @@ const PgStore = connectPgSimple(session);
 export const SESSION_COOKIE = 'spoolwright.sid';
 const EIGHT_HOURS = 8 * 60 * 60 * 1000;
 
-/** Sessions stored in PostgreSQL, so any number of API processes can serve a user. */
-export function sessionMiddleware(pool: pg.Pool, secret: string, secureCookies: boolean) {
+export type SessionStoreKind = 'postgres' | 'redis';
+
+/**
+ * Sessions kept on the server, so any number of API processes serve a user and a restarted API
+ * keeps everyone signed in: in Redis (`SESSION_STORE=redis`: one GET and one EXPIRE per request;
+ * keys `sess:<id>`, expiring with the session) or in PostgreSQL (table `session`: one SELECT and one
+ * UPDATE per request). The cookie holds only the signed session id.
+ */
+export function sessionMiddleware(opts: { kind: SessionStoreKind; pool: pg.Pool; redis: Redis; secret: string; secureCookies: boolean }) {
+  const store =
+    opts.kind === 'redis'
+      ? new RedisStore({ client: opts.redis, prefix: 'sess:', ttl: EIGHT_HOURS / 1000 })
+      : new PgStore({ pool: opts.pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
   return session({
     name: SESSION_COOKIE,
-    secret,
-    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
+    secret: opts.secret,
+    store,
     resave: false,
     saveUninitialized: false,
     rolling: true,
-    proxy: secureCookies,
-    cookie: { httpOnly: true, sameSite: 'lax', secure: secureCookies ? 'auto' : false, maxAge: EIGHT_HOURS },
+    proxy: opts.secureCookies,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: opts.secureCookies ? 'auto' : false, maxAge: EIGHT_HOURS },
   });
 }
 

@@ -5,12 +5,29 @@
  * subquery runs per work order; the one index the plans use is work_orders_board_idx
  * (stage, -priority, due_date, id), which both orders a column and serves its keyset cursor.
  */
+import { createHash } from 'node:crypto';
 import { sql, type SQL } from 'drizzle-orm';
+import { PgDialect } from 'drizzle-orm/pg-core';
 import { BOARD_STAGES, type BoardFilters } from '../../src/contracts/board';
 import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
 
 type Q = Db | Tx;
+
+const dialect = new PgDialect();
+
+/**
+ * Runs one of the board's queries as a named prepared statement (one per distinct text and pool
+ * connection), so PostgreSQL plans it once rather than on every request: planning these joins
+ * costs more than running them. Inside a transaction it runs as a plain query.
+ */
+export async function run<T>(db: Q, query: SQL): Promise<T[]> {
+  const pool = (db as Partial<Db>).$client;
+  if (!pool || typeof (pool as { query?: unknown }).query !== 'function') return (await db.execute(query)).rows as T[];
+  const { sql: text, params } = dialect.sqlToQuery(query);
+  const name = `board_${createHash('sha1').update(text).digest('hex').slice(0, 20)}`;
+  return (await pool.query({ name, text, values: params as unknown[] })).rows as T[];
+}
 
 /** A cursor decoded: the last card's priority, due date and id. */
 export type Cursor = { priority: number; dueDate: string; id: number };
@@ -80,7 +97,7 @@ export function hourGroupsQuery(f: BoardFilters, today: string, stages: readonly
 }
 
 export async function hourGroups(db: Q, f: BoardFilters, today: string, stages: readonly Stage[] = BOARD_STAGES): Promise<HourGroup[]> {
-  return (await db.execute<HourGroup>(hourGroupsQuery(f, today, stages))).rows;
+  return run<HourGroup>(db, hourGroupsQuery(f, today, stages));
 }
 
 /** Card fields of work orders (joined once for just these rows). */
@@ -88,11 +105,10 @@ const CARD_FIELDS = sql`w.id, w.number, w.stage, w.version, w.quantity, w.due_da
   w.assignee_id as "assigneeId", au.name as "assigneeName", w.station_id as "stationId", st.name as "stationName",
   st.spindle_rpm as "spindleRpm", st.setup_seconds as "setupSeconds",
   o.customer_id as "customerId", c.name as "customerName", o.number as "orderNumber", l.title,
-  (bs.result ->> 'turns')::float8 as turns, w.created_at as "createdAt"`;
+  w.build_sheet_id as "buildSheetId", w.created_at as "createdAt"`;
 const CARD_JOINS = sql`join orders o on o.id = w.order_id
   join customers c on c.id = o.customer_id
   join order_lines l on l.id = w.line_id
-  join build_sheets bs on bs.id = w.build_sheet_id
   left join users au on au.id = w.assignee_id
   left join stations st on st.id = w.station_id`;
 
@@ -114,9 +130,22 @@ export type CardRow = {
   customerName: string;
   orderNumber: string;
   title: string;
-  turns: number;
+  buildSheetId: number;
   createdAt: Date | string;
 };
+
+/**
+ * Turns of build sheets, read once per sheet (a sheet's result is a large JSON document; reading
+ * it once per card would cost more than the rest of the query).
+ */
+export async function sheetTurns(db: Q, ids: number[]): Promise<Map<number, number>> {
+  if (!ids.length) return new Map();
+  const rows = await run<{ id: number; turns: number }>(
+    db,
+    sql`select id, (result ->> 'turns')::float8 as turns from build_sheets where id = any(${`{${[...new Set(ids)].join(',')}}`}::int[])`,
+  );
+  return new Map(rows.map((r) => [r.id, r.turns]));
+}
 
 const ORDER = sql`(-w.priority), w.due_date, w.id`;
 const afterCursor = (c: Cursor | undefined) => (c ? sql` and ((-w.priority), w.due_date, w.id) > (${-c.priority}, ${c.dueDate}::date, ${c.id})` : sql``);
@@ -143,13 +172,13 @@ export function firstCardsQuery(f: BoardFilters, today: string, limit: number, s
 }
 
 export async function firstCards(db: Q, f: BoardFilters, today: string, limit: number, stages: readonly Stage[] = BOARD_STAGES, cursor?: Cursor): Promise<CardRow[]> {
-  return (await db.execute<CardRow>(firstCardsQuery(f, today, limit, stages, cursor))).rows;
+  return run<CardRow>(db, firstCardsQuery(f, today, limit, stages, cursor));
 }
 
 /** Card fields of the given work orders, whatever their stage. */
 export async function cardsByIds(db: Q, ids: number[]): Promise<CardRow[]> {
   if (!ids.length) return [];
-  return (await db.execute<CardRow>(sql`select ${CARD_FIELDS} from work_orders w ${CARD_JOINS} where w.id = any(${`{${ids.join(',')}}`}::int[])`)).rows;
+  return run<CardRow>(db, sql`select ${CARD_FIELDS} from work_orders w ${CARD_JOINS} where w.id = any(${`{${ids.join(',')}}`}::int[])`);
 }
 
 export type StageEntry = { workOrderId: number; at: Date | string; fromStage: Stage | null; note: string };
@@ -164,7 +193,7 @@ export function stageEntriesQuery(ids: number[]): SQL {
 
 export async function stageEntries(db: Q, ids: number[]): Promise<Map<number, StageEntry>> {
   if (!ids.length) return new Map();
-  const rows = (await db.execute<StageEntry>(stageEntriesQuery(ids))).rows;
+  const rows = await run<StageEntry>(db, stageEntriesQuery(ids));
   return new Map(rows.map((r) => [r.workOrderId, r]));
 }
 
@@ -180,7 +209,7 @@ export function choicesQuery(): SQL {
 }
 
 export async function choices(db: Q): Promise<Choice[]> {
-  return (await db.execute<Choice>(choicesQuery())).rows;
+  return run<Choice>(db, choicesQuery());
 }
 
 /** The board's queries as the first screen runs them (unfiltered), for EXPLAIN in the bench. */

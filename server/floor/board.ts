@@ -33,7 +33,7 @@ export type CardFacts = { row: repo.CardRow; entry: repo.StageEntry | undefined;
 
 /** Reads the facts of card rows: their stage entries, the test gate where packing is in reach, estimates, flags. */
 async function facts(db: Q, rows: repo.CardRow[], settings: FloorSettings, today: string): Promise<CardFacts[]> {
-  const entries = await repo.stageEntries(db, rows.map((r) => r.id));
+  const [entries, turns] = await Promise.all([repo.stageEntries(db, rows.map((r) => r.id)), repo.sheetTurns(db, rows.map((r) => r.buildSheetId))]);
   const heldFromOf = (r: repo.CardRow) => (r.stage === 'on_hold' ? (entries.get(r.id)?.fromStage ?? null) : null);
   // The unit-test part of the packing gate only matters where packing is a move away.
   const gated = rows.filter((r) => inspectionSigned(r.stage, heldFromOf(r))).map((r) => r.id);
@@ -41,7 +41,7 @@ async function facts(db: Q, rows: repo.CardRow[], settings: FloorSettings, today
   return rows.map((row) => {
     const heldFrom = heldFromOf(row);
     const station = row.stationId !== null ? { spindleRpm: row.spindleRpm, setupSeconds: row.setupSeconds ?? 0 } : null;
-    const est = estimateRemaining({ quantity: row.quantity, stage: row.stage, heldFrom, turns: row.turns }, station, settings);
+    const est = estimateRemaining({ quantity: row.quantity, stage: row.stage, heldFrom, turns: turns.get(row.buildSheetId) ?? 0 }, station, settings);
     const flags = lateness(row.dueDate, row.stage, est.hours, today, settings);
     return { row, entry: entries.get(row.id), heldFrom, tests: tests.get(row.id) ?? { state: 'not_tracked' }, estimatedHours: r2(est.hours), ...flags };
   });
@@ -68,10 +68,29 @@ export function toCard(f: CardFacts, viewer: SessionUser): BoardCard {
     atRisk: f.atRisk,
     estimatedHours: f.estimatedHours,
     holdReason: row.stage === 'on_hold' ? (f.entry?.note ?? '') : null,
-    allowedMoves: MOVERS.includes(viewer.role)
-      ? allowedMoves({ actor: viewer, workOrder: { stage: row.stage, assigneeId: row.assigneeId }, heldFrom: f.heldFrom, unitTests: f.tests, stationId: row.stationId })
-      : [],
+    allowedMoves: movesFor(f, viewer),
   };
+}
+
+/**
+ * The move table's answer depends only on the role, the stages, the test gate's state and whose
+ * work it is (the user's own, nobody's, someone else's), so a board asks it once per distinct
+ * case rather than once per card.
+ */
+const movesMemo = new Map<string, Stage[]>();
+function movesFor(f: CardFacts, viewer: SessionUser): Stage[] {
+  if (!MOVERS.includes(viewer.role)) return [];
+  const { row } = f;
+  const whose = row.assigneeId === null ? 'none' : row.assigneeId === viewer.id ? 'mine' : 'other';
+  const key = `${viewer.role}|${row.stage}|${f.heldFrom}|${f.tests.state}|${whose}`;
+  let moves = movesMemo.get(key);
+  if (!moves) {
+    // A stand-in assignee of the same kind (mine / nobody / someone else) gives the same answer.
+    const assigneeId = whose === 'none' ? null : whose === 'mine' ? viewer.id : -1;
+    moves = allowedMoves({ actor: viewer, workOrder: { stage: row.stage, assigneeId }, heldFrom: f.heldFrom, unitTests: f.tests, stationId: row.stationId });
+    if (movesMemo.size < 10_000) movesMemo.set(key, moves);
+  }
+  return moves;
 }
 
 /** Count and estimated hours per stage, from the database's groups. */

@@ -2,6 +2,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
 import { spoolsOfWire, type WireKey } from '../stock/repository';
+import { run } from './board-repository';
 import { buildSheets, spools, stations, users, workOrders } from '../db/schema';
 
 export type StationRow = typeof stations.$inferSelect;
@@ -132,5 +133,5 @@ export function loadGroupsQuery(today: string, to: string, days: number) {
 }
 
 export async function loadGroups(db: Db | Tx, today: string, to: string, days: number): Promise<LoadGroup[]> {
-  return (await db.execute<LoadGroup>(loadGroupsQuery(today, to, days))).rows;
+  return run<LoadGroup>(db, loadGroupsQuery(today, to, days));
 }
