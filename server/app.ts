@@ -82,7 +82,7 @@ export function createApp(deps: Deps, opts: { serveClient?: boolean } = {}) {
   const api = Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(requireCsrfHeader);
-  api.use(sessionMiddleware({ kind: config.sessionStore, pool: deps.pool, redis: deps.redis, secret: config.sessionSecret, secureCookies: config.trustProxy }));
+  api.use(sessionMiddleware({ kind: config.sessionStore, pool: deps.pool, redis: deps.sessionRedis, secret: config.sessionSecret, secureCookies: config.trustProxy }));
   api.use(passport.session());
   api.use(authRouter(passport, createLoginLimiter(deps.redis)));
   for (const r of apiRouters(deps)) api.use(r);

@@ -22,9 +22,9 @@ export type SessionStoreKind = 'postgres' | 'redis';
  * keys `sess:<id>`, expiring with the session) or in PostgreSQL (table `session`: one SELECT and one
  * UPDATE per request). The cookie holds only the signed session id.
  */
-export function sessionMiddleware(opts: { kind: SessionStoreKind; pool: pg.Pool; redis: Redis; secret: string; secureCookies: boolean }) {
+export function sessionMiddleware(opts: { kind: SessionStoreKind; pool: pg.Pool; redis: Redis | null; secret: string; secureCookies: boolean }) {
   const store =
-    opts.kind === 'redis'
+    opts.kind === 'redis' && opts.redis
       ? new RedisStore({ client: opts.redis, prefix: 'sess:', ttl: EIGHT_HOURS / 1000 })
       : new PgStore({ pool: opts.pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
   return session({
