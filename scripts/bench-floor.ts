@@ -157,10 +157,10 @@ type Figures = { name: string; path: string; payload: number | null; gzip: numbe
 
 const pct = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] : NaN);
 
-async function payloadOf(url: string, cookie: string) {
-  const res = await fetch(url, { headers: { cookie } });
+async function payloadOf(url: string, cookie: string, headers: Record<string, string> = {}) {
+  const res = await fetch(url, { headers: { cookie, ...headers } });
   const body = Buffer.from(await res.arrayBuffer());
-  if (!res.ok) throw new Error(`${url} → ${res.status}: ${body.toString().slice(0, 300)}`);
+  if (!res.ok && res.status !== 304) throw new Error(`${url} → ${res.status}: ${body.toString().slice(0, 300)}`);
   return { bytes: body.length, gzip: gzipSync(body).length, body };
 }
 
@@ -175,7 +175,7 @@ function hammer(url: string, headers: Record<string, string>): Promise<{ times: 
 }
 
 async function measure(name: string, url: string, cookie: string, opts: { payload?: boolean; headers?: Record<string, string> } = {}): Promise<Figures> {
-  const p = opts.payload === false ? null : await payloadOf(url, cookie);
+  const p = opts.payload === false ? null : await payloadOf(url, cookie, opts.headers);
   const headers = { ...(cookie ? { cookie } : {}), ...opts.headers };
   // A short warm-up (JIT, connection pools, caches), then the run.
   await new Promise<void>((resolve) => autocannon({ url, connections: 10, duration: 1, headers }, () => resolve()));

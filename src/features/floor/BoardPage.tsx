@@ -262,11 +262,9 @@ export function BoardPage() {
       ) : (
         <div className="-mx-4 overflow-x-auto px-4 pb-2" data-testid="board-columns">
           <div
-            className="grid gap-2"
+            className="grid gap-1.5"
             style={{
-              gridTemplateColumns: columns
-                .map((c) => (isCollapsed(c, opened, dragging) ? '3rem' : `minmax(${p.view === 'compact' ? '9.5rem' : '11rem'}, 1fr)`))
-                .join(' '),
+              gridTemplateColumns: columns.map((c) => (isCollapsed(c, opened, dragging) ? '2.5rem' : `minmax(${p.view === 'compact' ? '8.5rem' : '9.5rem'}, 1fr)`)).join(' '),
             }}
           >
             {columns.map((c) => {
@@ -434,7 +432,7 @@ function Column({
   const v = useVirtualizer({
     count: rows,
     getScrollElement: () => scroller.current,
-    estimateSize: () => (view === 'compact' ? 84 : 214),
+    estimateSize: () => (view === 'compact' ? 92 : 230),
     overscan: 6,
     getItemKey: (i) => c.cards[i]?.id ?? `more-${c.stage}`,
   });
@@ -554,7 +552,7 @@ function BoardCard({ wo, actions }: { wo: Card; actions: CardActions }) {
       <div className="flex items-start gap-1 p-2 pb-1">
         <SelectBox wo={wo} actions={actions} />
         <div className="min-w-0 flex-1">
-          <Link to={`/work-orders/${wo.id}`} className="text-lg leading-tight font-bold text-graphite-950 underline-offset-2 hover:underline" draggable={false}>
+          <Link to={`/work-orders/${wo.id}`} className="block truncate text-lg leading-tight font-bold text-graphite-950 underline-offset-2 hover:underline" draggable={false}>
             {wo.number}
           </Link>
           <p className="truncate text-sm font-semibold text-graphite-800" title={wo.customer.name}>
@@ -607,7 +605,7 @@ function BoardCard({ wo, actions }: { wo: Card; actions: CardActions }) {
   );
 }
 
-/** Two lines a card: number, flags and the move button; customer, due date and who. */
+/** A small card: number and priority; customer; due date with its flag and the move button; who. */
 function CompactCard({ wo, actions }: { wo: Card; actions: CardActions }) {
   const movable = wo.allowedMoves.length > 0;
   return (
@@ -616,41 +614,47 @@ function CompactCard({ wo, actions }: { wo: Card; actions: CardActions }) {
       data-late={wo.late || undefined}
       data-at-risk={wo.atRisk || undefined}
       {...dragProps(wo, actions)}
-      className={`flex items-center gap-1 rounded-md border border-graphite-300 bg-white py-1 pr-1 pl-1.5 shadow-sm ${edgeOf(wo)} ${actions.selected.has(wo.id) ? 'ring-4 ring-copper-400' : ''} ${movable ? 'cursor-grab active:cursor-grabbing' : ''}`}
+      style={wo.late ? { clipPath: 'polygon(0 0, calc(100% - 12px) 0, 100% 12px, 100% 100%, 0 100%)' } : undefined}
+      className={`rounded-md border border-graphite-300 bg-white py-1 pr-1 pl-1.5 text-sm leading-snug shadow-sm ${edgeOf(wo)} ${actions.selected.has(wo.id) ? 'ring-4 ring-copper-400' : ''} ${movable ? 'cursor-grab active:cursor-grabbing' : ''}`}
     >
-      <SelectBox wo={wo} actions={actions} />
-      <div className="min-w-0 flex-1 text-sm leading-snug">
-        <p className="flex items-center gap-1">
-          <Link to={`/work-orders/${wo.id}`} className="truncate font-bold text-graphite-950 underline-offset-2 hover:underline" draggable={false}>
-            {wo.number}
-          </Link>
+      <p className="flex min-w-0 items-center gap-1">
+        {actions.selectable && (
+          <input type="checkbox" checked={actions.selected.has(wo.id)} onChange={() => actions.onToggle(wo.id)} className="size-5 shrink-0 accent-copper-600" aria-label={`Select ${wo.number}`} />
+        )}
+        <Link to={`/work-orders/${wo.id}`} className="truncate font-bold text-graphite-950 underline-offset-2 hover:underline" draggable={false}>
+          {wo.number}
+        </Link>
+        {wo.priority > 0 && (
+          <span className="shrink-0 text-xs font-bold text-graphite-900" title={priorityLabel(wo.priority)}>
+            {'▲'.repeat(wo.priority)}
+          </span>
+        )}
+      </p>
+      <p className="truncate text-graphite-700" title={`${wo.customer.name} — ${wo.title}`}>
+        {wo.customer.name}
+      </p>
+      <div className="flex items-center gap-1">
+        <p className="min-w-0 flex-1 truncate text-graphite-600 tabular-nums">
+          {formatDay(wo.dueDate)}{' '}
           {wo.late ? (
             <span data-flag="late" className="rounded-sm bg-fault px-1 text-xs font-bold text-white uppercase">
               Late
             </span>
           ) : wo.atRisk ? (
             <span data-flag="at-risk" className="rounded-sm border border-dashed border-caution px-1 text-xs font-bold text-caution">
-              Risk
+              At risk
             </span>
           ) : null}
-          {wo.priority > 0 && (
-            <span className="text-xs font-bold text-graphite-900" title={priorityLabel(wo.priority)}>
-              {'▲'.repeat(wo.priority)}
-            </span>
-          )}
         </p>
-        <p className="truncate text-graphite-700" title={`${wo.customer.name} — ${wo.title}`}>
-          {wo.customer.name}
-        </p>
-        <p className="truncate text-graphite-600 tabular-nums">
-          due {formatDay(wo.dueDate)} · <span data-field="assignee">{wo.assignee ? wo.assignee.name : 'Nobody'}</span>
-        </p>
+        {movable && (
+          <Button size="md" variant="quiet" className="h-8 w-9 shrink-0 px-0" onClick={() => actions.onMove(wo)} aria-label={`Move ${wo.number}`}>
+            <span aria-hidden>⇢</span>
+          </Button>
+        )}
       </div>
-      {movable && (
-        <Button size="md" variant="quiet" className="size-11 shrink-0 px-0" onClick={() => actions.onMove(wo)} aria-label={`Move ${wo.number}`}>
-          <span aria-hidden>⇢</span>
-        </Button>
-      )}
+      <p className="truncate text-graphite-600">
+        <span data-field="assignee">{wo.assignee ? wo.assignee.name : 'Nobody'}</span>
+      </p>
     </article>
   );
 }

@@ -23,6 +23,8 @@ import {
   type WorkOrderDetail,
 } from '../../contracts/work-orders';
 import {
+  BOARD_LIMIT_MAX,
+  BOARD_SEARCH_MAX,
   BOARD_STAGES,
   boardColumn,
   boardDelta,
@@ -292,7 +294,7 @@ export function parseScan(raw: string): ScanTarget | null {
 
 /**
  * Finds a work order by what was scanned: a full number through the list's `number` filter; a
- * shortened one ("26-00042", "42") by matching the list. Then read in full by id.
+ * shortened one ("26-00042", "42") by searching the open work on the board. Then read in full by id.
  * Answers null when nothing has that number.
  */
 export async function lookupWorkOrder(target: ScanTarget, signal?: AbortSignal): Promise<WorkOrderDetail | null> {
@@ -303,7 +305,9 @@ export async function lookupWorkOrder(target: ScanTarget, signal?: AbortSignal):
     if (found.length !== 1) return null;
     id = found[0]!.id;
   } else {
-    const all = (await api.get('/work-orders', { schema: workOrderListResponse, signal })).workOrders;
+    // A shortened number: search the open work on the board (never the shop's whole history).
+    const found = await api.get(`/board${boardParams({ q: target.number.slice(-BOARD_SEARCH_MAX) }, { limit: BOARD_LIMIT_MAX })}`, { schema: boardResponse, signal });
+    const all = found.columns.flatMap((c) => c.cards);
     const exact = all.find((w) => w.number.toUpperCase() === target.number);
     // A number typed without its prefix ("26-00042") or the sequence alone ("42") also finds it, when unambiguous.
     const loose = exact
@@ -365,7 +369,7 @@ export function useFloorLive(): { state: LiveState; pollMs: number | false } {
       if (!parsed?.success || parsed.data.card === undefined) return refresh();
       const d = parsed.data;
       patchBoards(client, d);
-      void client.invalidateQueries({ predicate: (q) => q.queryKey[0] === FLOOR_KEY && q.queryKey[1] !== BOARD_KEY });
+      void client.invalidateQueries({ predicate: (q) => q.queryKey[0] === FLOOR_KEY && (q.queryKey[1] === 'load' || q.queryKey[1] === 'my-work') });
       void client.invalidateQueries({ queryKey: [WORK_ORDER_KEY] });
     };
     const open = () => {
