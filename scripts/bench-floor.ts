@@ -16,7 +16,8 @@
  * 2,100 keep an open stage with due dates spread around today, the rest have shipped.
  */
 import autocannon from 'autocannon';
-import { spawn, type ChildProcess } from 'node:child_process';
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { gzipSync } from 'node:zlib';
@@ -232,6 +233,11 @@ const kb = (b: number | null) => (b === null ? '–' : b < 1024 ? `${b} B` : `${
 
 await seedBench();
 start(['--input-type=module', '-e', HELLO], {}, 'hello');
+// The app serves the built client for the browser figures: dist/client, built when its sources
+// changed (or CLIENT_DIR as it is).
+if (!process.env.CLIENT_DIR || !existsSync(path.join(root, process.env.CLIENT_DIR, 'index.html'))) {
+  spawnSync(process.execPath, ['--import', 'tsx', 'scripts/build-client.ts'], { cwd: root, stdio: 'inherit' });
+}
 start(['--import', 'tsx', 'server/index.ts'], {}, 'app');
 const base = `http://127.0.0.1:${PORT}`;
 await Promise.all([waitFor(`http://127.0.0.1:${HELLO_PORT}/hello`), waitFor(`${base}/api/health`)]);
@@ -297,6 +303,56 @@ console.log(`  board first screen payload  = ${kb(board.payload)}  (target ≤ 2
 console.log(`  timeouts                    = ${results.reduce((t, r) => t + r.timeouts, 0)}  (target 0)`);
 console.log(`  one unloaded board request  = ${oneCached.toFixed(1)} ms from the cache, ${oneComputed.toFixed(1)} ms computed  (target ≤ 50 ms)`);
 console.log(`  one unloaded load view      = ${loadComputed.toFixed(1)} ms computed`);
+
+if (hasBoard) await browserFigures();
+
+/**
+ * The client at this size, in Debian's Chromium on a tablet-sized window (1024×768), the server
+ * idle: time from pressing Sign in (next: the board) to the first card on screen, and frames drawn
+ * while the longest column is scrolled for 3 s (40 px a frame; it fetches pages as it goes).
+ */
+async function browserFigures() {
+  try {
+    const { chromium } = await import('playwright-core');
+    const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: ['--headless', '--no-sandbox', '--disable-gpu'] });
+    try {
+      const page = await browser.newPage({ viewport: { width: 1024, height: 768 } });
+      await page.goto(`${base}/sign-in?next=${encodeURIComponent('/board?view=compact')}`);
+      await page.getByLabel('E-mail').fill(demoEmail('foreman'));
+      await page.getByLabel('Password').fill(DEMO_PASSWORD);
+      const t0 = performance.now();
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      await page.locator('[data-card]').first().waitFor({ timeout: 20_000 });
+      const firstScreen = performance.now() - t0;
+      const longest = (await page.locator('[data-column]:not([data-collapsed])').evaluateAll((els) =>
+        els.map((e) => ({ stage: e.getAttribute('data-column')!, n: Number(e.querySelector('[data-testid^="column-count-"]')?.textContent?.split(' ')[0] ?? 0) })),
+      )).sort((a, b) => b.n - a.n)[0]!;
+      const frames = await page.getByTestId(`column-scroll-${longest.stage}`).evaluate(
+        (el) =>
+          new Promise<{ frames: number; seconds: number; worst: number; drawn: number }>((resolve) => {
+            const gaps: number[] = [];
+            let last = performance.now();
+            const start = last;
+            const step = (t: number) => {
+              gaps.push(t - last);
+              last = t;
+              el.scrollTop += 40;
+              if (t - start < 3000) requestAnimationFrame(step);
+              else resolve({ frames: gaps.length, seconds: (t - start) / 1000, worst: Math.max(...gaps.slice(1)), drawn: el.querySelectorAll('[data-card]').length });
+            };
+            requestAnimationFrame(step);
+          }),
+      );
+      console.log('\nThe client (Chromium, 1024×768, compact view):');
+      console.log(`  first screen after pressing Sign in = ${firstScreen.toFixed(0)} ms  (target ≤ 1 s)`);
+      console.log(`  scrolling ${longest.stage} (${longest.n} cards) for ${frames.seconds.toFixed(1)} s = ${(frames.frames / frames.seconds).toFixed(0)} frames/s, longest frame ${frames.worst.toFixed(0)} ms, ${frames.drawn} cards in the page  (target 60 fps)`);
+    } finally {
+      await browser.close();
+    }
+  } catch (e) {
+    console.log(`\n(browser figures skipped: ${(e as Error).message.split('\n')[0]})`);
+  }
+}
 
 if (hasBoard) {
   const { boardPlans } = await import('../server/floor/board-repository');

@@ -4,8 +4,10 @@
  * staff the person, whose allowed moves are their own) — its JSON serialised once, gzipped once,
  * its ETag taken once — and kept until the feed announces any change (or the feed's connection
  * drops, or a minute passes: a safety net for changes the feed does not announce, such as a renamed
- * customer). While the feed is not listening nothing is kept. Concurrent misses of one key share
- * one computation. A request with `If-None-Match` naming the current ETag gets 304; one with
+ * customer). While the feed is not listening nothing is kept, and while a change this process
+ * made has not come back through the feed every answer is computed afresh (a person who just
+ * moved a card never reads the board from before the move). Concurrent misses of one key share one
+ * computation. A request with `If-None-Match` naming the current ETag gets 304; one with
  * `Cache-Control: no-cache` (a hard reload) is computed afresh.
  */
 import { createHash } from 'node:crypto';

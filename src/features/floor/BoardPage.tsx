@@ -552,7 +552,7 @@ function BoardCard({ wo, actions }: { wo: Card; actions: CardActions }) {
       <div className="flex items-start gap-1 p-2 pb-1">
         <SelectBox wo={wo} actions={actions} />
         <div className="min-w-0 flex-1">
-          <Link to={`/work-orders/${wo.id}`} className="block truncate text-lg leading-tight font-bold text-graphite-950 underline-offset-2 hover:underline" draggable={false}>
+          <Link to={`/work-orders/${wo.id}`} className="block truncate text-base leading-tight font-bold text-graphite-950 underline-offset-2 hover:underline" draggable={false}>
             {wo.number}
           </Link>
           <p className="truncate text-sm font-semibold text-graphite-800" title={wo.customer.name}>
