@@ -605,6 +605,10 @@ function BoardCard({ wo, actions }: { wo: Card; actions: CardActions }) {
   );
 }
 
+const dayMonth = new Intl.DateTimeFormat('en-GB', { day: '2-digit', month: 'short', timeZone: 'UTC' });
+/** "24 Nov": a due date without its year, where a column is narrow. */
+const shortDay = (iso: string) => dayMonth.format(new Date(`${iso}T00:00:00Z`));
+
 /** A small card: number and priority; customer; due date with its flag and the move button; who. */
 function CompactCard({ wo, actions }: { wo: Card; actions: CardActions }) {
   const movable = wo.allowedMoves.length > 0;
@@ -634,8 +638,8 @@ function CompactCard({ wo, actions }: { wo: Card; actions: CardActions }) {
         {wo.customer.name}
       </p>
       <div className="flex items-center gap-1">
-        <p className="min-w-0 flex-1 truncate text-graphite-600 tabular-nums">
-          {formatDay(wo.dueDate)}{' '}
+        <p className="min-w-0 flex-1 truncate text-graphite-600 tabular-nums" title={`Due ${formatDay(wo.dueDate)}`}>
+          {shortDay(wo.dueDate)}{' '}
           {wo.late ? (
             <span data-flag="late" className="rounded-sm bg-fault px-1 text-xs font-bold text-white uppercase">
               Late
