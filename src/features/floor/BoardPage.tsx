@@ -264,7 +264,7 @@ export function BoardPage() {
           <div
             className="grid gap-1.5"
             style={{
-              gridTemplateColumns: columns.map((c) => (isCollapsed(c, opened, dragging) ? '2.5rem' : `minmax(${p.view === 'compact' ? '8.5rem' : '9.5rem'}, 1fr)`)).join(' '),
+              gridTemplateColumns: columns.map((c) => (isCollapsed(c, opened, dragging) ? '2.5rem' : 'minmax(9rem, 1fr)')).join(' '),
             }}
           >
             {columns.map((c) => {
@@ -521,7 +521,7 @@ function dragProps(wo: Card, actions: CardActions) {
 function SelectBox({ wo, actions }: { wo: Card; actions: CardActions }) {
   if (!actions.selectable) return null;
   return (
-    <label className="-m-1 flex size-11 shrink-0 cursor-pointer items-center justify-center rounded hover:bg-graphite-100">
+    <label className="flex size-11 shrink-0 cursor-pointer items-center justify-center rounded hover:bg-graphite-100">
       <input type="checkbox" checked={actions.selected.has(wo.id)} onChange={() => actions.onToggle(wo.id)} className="size-6 accent-copper-600" aria-label={`Select ${wo.number}`} />
     </label>
   );
@@ -549,10 +549,9 @@ function BoardCard({ wo, actions }: { wo: Card; actions: CardActions }) {
       className={`relative rounded-md border border-graphite-300 bg-white shadow-sm ${edgeOf(wo)} ${actions.selected.has(wo.id) ? 'ring-4 ring-copper-400' : ''} ${movable ? 'cursor-grab active:cursor-grabbing' : ''}`}
     >
       {wo.late && <span aria-hidden className="absolute top-0 right-0 size-[18px] bg-fault" style={{ clipPath: 'polygon(0 0, 100% 100%, 0 100%)' }} />}
-      <div className="flex items-start gap-1 p-2 pb-1">
-        <SelectBox wo={wo} actions={actions} />
-        <div className="min-w-0 flex-1">
-          <Link to={`/work-orders/${wo.id}`} className="block truncate text-base leading-tight font-bold text-graphite-950 underline-offset-2 hover:underline" draggable={false}>
+      <div className="p-2 pb-1">
+        <div className="min-w-0 pr-3">
+          <Link to={`/work-orders/${wo.id}`} className="block text-base leading-tight font-bold whitespace-nowrap text-graphite-950 underline-offset-2 hover:underline" draggable={false}>
             {wo.number}
           </Link>
           <p className="truncate text-sm font-semibold text-graphite-800" title={wo.customer.name}>
@@ -595,10 +594,15 @@ function BoardCard({ wo, actions }: { wo: Card; actions: CardActions }) {
             </span>
           </p>
         )}
-        {movable && (
-          <Button size="md" variant="secondary" className="mt-1 h-11 w-full" onClick={() => actions.onMove(wo)} aria-label={`Move ${wo.number}`}>
-            Move…
-          </Button>
+        {(movable || actions.selectable) && (
+          <div className="mt-1 flex items-center gap-1.5">
+            <SelectBox wo={wo} actions={actions} />
+            {movable && (
+              <Button size="md" variant="secondary" className="h-11 min-w-0 flex-1" onClick={() => actions.onMove(wo)} aria-label={`Move ${wo.number}`}>
+                Move…
+              </Button>
+            )}
+          </div>
         )}
       </div>
     </article>
