@@ -156,17 +156,19 @@ const afterCursor = (c: Cursor | undefined) => (c ? sql` and ((-w.priority), w.d
  * the card fields for those rows only.
  */
 export function firstCardsQuery(f: BoardFilters, today: string, limit: number, stages: readonly Stage[] = BOARD_STAGES, cursor?: Cursor): SQL {
-  // The stage is the lateral scan's own; the other filters are the same for every stage.
+  // The stage is the lateral scan's own; the other filters are the same for every stage. The scan
+  // returns the work orders' own columns (as `w`), so nothing joins back to work_orders.
   const s = scope(f, today);
   return sql`select ${CARD_FIELDS}
     from unnest(${stageArray(stages)}) with ordinality as s(stage, pos)
     cross join lateral (
-      select w.id from work_orders w ${s.joins}
+      select w.id, w.number, w.stage, w.version, w.quantity, w.due_date, w.priority, w.assignee_id, w.station_id,
+             w.order_id, w.line_id, w.build_sheet_id, w.created_at
+      from work_orders w ${s.joins}
       where w.stage = s.stage and ${s.where}${afterCursor(cursor)}
       order by ${ORDER}
       limit ${limit + 1}
-    ) x
-    join work_orders w on w.id = x.id
+    ) w
     ${CARD_JOINS}
     order by s.pos, ${ORDER}`;
 }

@@ -33,17 +33,22 @@ export type CardFacts = { row: repo.CardRow; entry: repo.StageEntry | undefined;
 
 /** Reads the facts of card rows: their stage entries, the test gate where packing is in reach, estimates, flags. */
 async function facts(db: Q, rows: repo.CardRow[], settings: FloorSettings, today: string): Promise<CardFacts[]> {
-  const [entries, turns] = await Promise.all([repo.stageEntries(db, rows.map((r) => r.id)), repo.sheetTurns(db, rows.map((r) => r.buildSheetId))]);
+  // The unit-test part of the packing gate only matters where packing is a move away: from
+  // inspection, or back from a hold taken in packing (asked for every hold, in parallel).
+  const maybeGated = rows.filter((r) => r.stage === 'inspection' || r.stage === 'on_hold').map((r) => r.id);
+  const [entries, turns, tests] = await Promise.all([
+    repo.stageEntries(db, rows.map((r) => r.id)),
+    repo.sheetTurns(db, rows.map((r) => r.buildSheetId)),
+    maybeGated.length ? unitTestGate(db, maybeGated) : Promise.resolve(new Map<number, UnitTestState>()),
+  ]);
   const heldFromOf = (r: repo.CardRow) => (r.stage === 'on_hold' ? (entries.get(r.id)?.fromStage ?? null) : null);
-  // The unit-test part of the packing gate only matters where packing is a move away.
-  const gated = rows.filter((r) => inspectionSigned(r.stage, heldFromOf(r))).map((r) => r.id);
-  const tests = gated.length ? await unitTestGate(db, gated) : new Map<number, UnitTestState>();
   return rows.map((row) => {
     const heldFrom = heldFromOf(row);
+    const gated = inspectionSigned(row.stage, heldFrom);
     const station = row.stationId !== null ? { spindleRpm: row.spindleRpm, setupSeconds: row.setupSeconds ?? 0 } : null;
     const est = estimateRemaining({ quantity: row.quantity, stage: row.stage, heldFrom, turns: turns.get(row.buildSheetId) ?? 0 }, station, settings);
     const flags = lateness(row.dueDate, row.stage, est.hours, today, settings);
-    return { row, entry: entries.get(row.id), heldFrom, tests: tests.get(row.id) ?? { state: 'not_tracked' }, estimatedHours: r2(est.hours), ...flags };
+    return { row, entry: entries.get(row.id), heldFrom, tests: (gated && tests.get(row.id)) || { state: 'not_tracked' }, estimatedHours: r2(est.hours), ...flags };
   });
 }
 
@@ -94,13 +99,13 @@ function movesFor(f: CardFacts, viewer: SessionUser): Stage[] {
 }
 
 /** Count and estimated hours per stage, from the database's groups. */
-async function columnTotals(db: Q, f: BoardFilters, today: string, settings: FloorSettings, stages: readonly Stage[]) {
-  const [groups, stations] = await Promise.all([repo.hourGroups(db, f, today, stages), stationTimings(db)]);
-  const totals = new Map<Stage, { count: number; hours: number }>(stages.map((s) => [s, { count: 0, hours: 0 }]));
+async function columnTotals(db: Q, f: BoardFilters, today: string, settings: Promise<FloorSettings>, stages: readonly Stage[]) {
+  const [groups, stations, s] = await Promise.all([repo.hourGroups(db, f, today, stages), stationTimings(db), settings]);
+  const totals = new Map<Stage, { count: number; hours: number }>(stages.map((st) => [st, { count: 0, hours: 0 }]));
   for (const g of groups) {
     const t = totals.get(g.stage)!;
     t.count += g.count;
-    t.hours += estimateGroup(g, g.stationId !== null ? (stations.get(g.stationId) ?? null) : null, settings).hours;
+    t.hours += estimateGroup(g, g.stationId !== null ? (stations.get(g.stationId) ?? null) : null, s).hours;
   }
   return totals;
 }
@@ -145,9 +150,10 @@ const filtersOf = (q: BoardQuery | BoardColumnQuery): BoardFilters => ({
 /** GET /api/board: every column's totals and first cards, and the filters' choices. */
 export async function board(db: Q, viewer: SessionUser, q: BoardQuery, today = localDate()): Promise<BoardResponse> {
   const f = filtersOf(q);
-  const settings = await getFloorSettings(db);
-  const [totals, rows, choiceRows] = await Promise.all([
-    columnTotals(db, f, today, settings, BOARD_STAGES),
+  const settingsRead = getFloorSettings(db);
+  const [settings, totals, rows, choiceRows] = await Promise.all([
+    settingsRead,
+    columnTotals(db, f, today, settingsRead, BOARD_STAGES),
     q.limit > 0 ? repo.firstCards(db, f, today, q.limit) : Promise.resolve([]),
     repo.choices(db),
   ]);
@@ -175,9 +181,10 @@ export async function board(db: Q, viewer: SessionUser, q: BoardQuery, today = l
 /** GET /api/board/columns/:stage: one column's totals and the page after `cursor`. */
 export async function boardColumn(db: Q, viewer: SessionUser, stage: Stage, q: BoardColumnQuery, today = localDate()): Promise<BoardColumn> {
   const f = filtersOf(q);
-  const settings = await getFloorSettings(db);
-  const [totals, rows] = await Promise.all([
-    columnTotals(db, f, today, settings, [stage]),
+  const settingsRead = getFloorSettings(db);
+  const [settings, totals, rows] = await Promise.all([
+    settingsRead,
+    columnTotals(db, f, today, settingsRead, [stage]),
     q.limit > 0 ? repo.firstCards(db, f, today, q.limit, [stage], parseCursor(q.cursor)) : Promise.resolve([]),
   ]);
   const p = pages(rows, q.limit).get(stage) ?? { rows: [], nextCursor: null };
