@@ -52,8 +52,11 @@ const schema = z.object({
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
-  /** Where sessions live: redis (default) or postgres (the `session` table). */
-  SESSION_STORE: z.enum(['redis', 'postgres']).default('redis'),
+  /**
+   * Where sessions live: postgres (default: the `session` table; the API keeps signing people in
+   * while Redis is away) or redis (faster per request, but every signed-in request then needs Redis).
+   */
+  SESSION_STORE: z.enum(['postgres', 'redis']).default('postgres'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
 });
 

@@ -18,15 +18,16 @@ export type SessionStoreKind = 'postgres' | 'redis';
 
 /**
  * Sessions kept on the server, so any number of API processes serve a user and a restarted API
- * keeps everyone signed in: in Redis (`SESSION_STORE=redis`: one GET and one EXPIRE per request;
- * keys `sess:<id>`, expiring with the session) or in PostgreSQL (table `session`: one SELECT and one
- * UPDATE per request). The cookie holds only the signed session id.
+ * keeps everyone signed in: in PostgreSQL (the default, table `session`: one SELECT per request, the
+ * expiry written at most every TOUCH_EVERY_MS) or in Redis (`SESSION_STORE=redis`: one GET and one
+ * EXPIRE per request, keys `sess:<id>`; faster, but then no one stays signed in while Redis is
+ * away). The cookie holds only the signed session id.
  */
 export function sessionMiddleware(opts: { kind: SessionStoreKind; pool: pg.Pool; redis: Redis | null; secret: string; secureCookies: boolean }) {
   const store =
     opts.kind === 'redis' && opts.redis
       ? new RedisStore({ client: opts.redis, prefix: 'sess:', ttl: EIGHT_HOURS / 1000 })
-      : new PgStore({ pool: opts.pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
+      : throttleTouch(new PgStore({ pool: opts.pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 }));
   return session({
     name: SESSION_COOKIE,
     secret: opts.secret,
@@ -37,6 +38,35 @@ export function sessionMiddleware(opts: { kind: SessionStoreKind; pool: pg.Pool;
     proxy: opts.secureCookies,
     cookie: { httpOnly: true, sameSite: 'lax', secure: opts.secureCookies ? 'auto' : false, maxAge: EIGHT_HOURS },
   });
+}
+
+/** How often one process pushes a session's expiry forward in PostgreSQL at most. */
+export const TOUCH_EVERY_MS = 5 * 60 * 1000;
+
+/**
+ * A rolling session's expiry moves on with every request; writing that to PostgreSQL on every
+ * request (an UPDATE per read) is most of a signed-in request's cost. This process writes it at
+ * most once per TOUCH_EVERY_MS per session, so a session still ends EIGHT_HOURS after its last use,
+ * give or take those minutes.
+ */
+function throttleTouch<S extends session.Store>(store: S): S {
+  const touched = new Map<string, number>();
+  const touch = store.touch?.bind(store);
+  if (!touch) return store;
+  store.touch = (sid, sess, cb) => {
+    const now = Date.now();
+    const last = touched.get(sid);
+    if (last !== undefined && now - last < TOUCH_EVERY_MS) return cb?.();
+    if (touched.size > 100_000) touched.clear();
+    touched.set(sid, now);
+    touch(sid, sess, cb);
+  };
+  const destroy = store.destroy.bind(store);
+  store.destroy = (sid, cb) => {
+    touched.delete(sid);
+    destroy(sid, cb);
+  };
+  return store;
 }
 
 /** passport-local against the users table; the session keeps only the user id. */
