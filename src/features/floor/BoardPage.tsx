@@ -264,7 +264,7 @@ export function BoardPage() {
           <div
             className="grid gap-1.5"
             style={{
-              gridTemplateColumns: columns.map((c) => (isCollapsed(c, opened, dragging) ? '2.5rem' : 'minmax(9rem, 1fr)')).join(' '),
+              gridTemplateColumns: columns.map((c) => (isCollapsed(c, opened) ? '2.5rem' : 'minmax(9rem, 1fr)')).join(' '),
             }}
           >
             {columns.map((c) => {
@@ -283,7 +283,7 @@ export function BoardPage() {
               };
               const frame = dragging && over === c.stage ? (canDrop ? 'border-copper-500 bg-copper-50' : 'border-fault/50 bg-fault-soft') : '';
               const hint = dragging && canDrop && over !== c.stage ? 'outline-2 outline-offset-[-2px] outline-copper-300 outline-dashed' : '';
-              if (isCollapsed(c, opened, dragging)) {
+              if (isCollapsed(c, opened)) {
                 return (
                   <CollapsedColumn
                     key={c.stage}
@@ -327,11 +327,11 @@ export function BoardPage() {
 
 /**
  * Side states and empty stages start folded into a narrow strip (every stage stays in sight at
- * 1366 px); a click opens one, and a drag opens those the card may go to.
+ * 1366 px); a click opens one. A folded strip takes a dropped card too (nothing changes width
+ * while a card is dragged, so the drop lands where it was aimed).
  */
-function isCollapsed(c: BoardColumn, opened: Set<Stage>, dragging: Card | null) {
+function isCollapsed(c: BoardColumn, opened: Set<Stage>) {
   if (opened.has(c.stage)) return false;
-  if (dragging && dragging.allowedMoves.includes(c.stage)) return false;
   return SIDE.includes(c.stage) || c.count === 0;
 }
 
