@@ -97,7 +97,7 @@ export function createApp(deps: Deps, opts: { serveClient?: boolean } = {}) {
   api.use(express.json({ limit: '1mb' }));
   api.use(bearerAuth(deps.db));
   api.use(requireCsrfHeader);
-  api.use(unlessToken(sessionMiddleware(deps.pool, config.sessionSecret, config.trustProxy)));
+  api.use(unlessToken(sessionMiddleware({ kind: config.sessionStore, pool: deps.pool, redis: deps.sessionRedis, secret: config.sessionSecret, secureCookies: config.trustProxy })));
   api.use(unlessToken(passport.session()));
   api.use(requirePasswordChange);
   api.use(authRouter(passport, createLoginLimiter(deps.redis), deps.db));

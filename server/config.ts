@@ -71,6 +71,11 @@ const schema = z.object({
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
+  /**
+   * Where sessions live: postgres (default: the `session` table; the API keeps signing people in
+   * while Redis is away) or redis (faster per request, but every signed-in request then needs Redis).
+   */
+  SESSION_STORE: z.enum(['postgres', 'redis']).default('postgres'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
 });
 
@@ -117,6 +122,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env) {
     },
     sessionSecret: c.SESSION_SECRET ?? DEV_SESSION_SECRET,
     trustProxy: c.TRUST_PROXY,
+    sessionStore: c.SESSION_STORE,
     logLevel: c.LOG_LEVEL ?? (c.NODE_ENV === 'test' ? 'silent' : 'info'),
   };
 }

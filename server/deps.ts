@@ -1,7 +1,7 @@
 import type { Config } from './config';
 import { createDb } from './db/client';
 import { createMailer } from './infra/mail';
-import { createRedis } from './infra/redis';
+import { createRedis, createSessionRedis } from './infra/redis';
 import { createStorage } from './infra/storage';
 import { producerConnection } from '../jobs/connection';
 import { createQueues } from '../jobs/queues';
@@ -10,6 +10,8 @@ import { createQueues } from '../jobs/queues';
 export function createDeps(config: Config) {
   const { db, pool } = createDb(config.databaseUrl);
   const redis = createRedis(config.redisUrl);
+  // Only when sessions live in Redis (SESSION_STORE).
+  const sessionRedis = config.sessionStore === 'redis' ? createSessionRedis(config.redisUrl) : null;
   const storage = createStorage(config.s3);
   const mailer = createMailer(config.smtpUrl, config.mailFrom);
   // Producers: add jobs and read their state; they fail fast while Redis is away.
@@ -20,6 +22,7 @@ export function createDeps(config: Config) {
     db,
     pool,
     redis,
+    sessionRedis,
     storage,
     mailer,
     queues,
@@ -28,6 +31,7 @@ export function createDeps(config: Config) {
       await queues.close().catch(() => {});
       queueConnection.disconnect();
       redis.disconnect();
+      sessionRedis?.disconnect();
       storage.client.destroy();
       await pool.end();
     },

@@ -337,6 +337,9 @@ export const workOrders = pgTable(
     index('work_orders_line_idx').on(t.lineId),
     index('work_orders_assignee_idx').on(t.assigneeId),
     index('work_orders_station_idx').on(t.stationId),
+    // The board: a column in the order the foreman works it (priority high first, due date, id);
+    // the keyset cursor compares ((-priority), due_date, id) against the last card's.
+    index('work_orders_board_idx').on(t.stage, sql`(-${t.priority})`, t.dueDate, t.id),
   ],
 );
 

@@ -38,23 +38,38 @@ export function stagesAhead(stage: Stage, heldFrom: Stage | null): Stage[] {
 
 export type Estimate = { windingHours: number; otherHours: number; hours: number };
 
+/**
+ * Work orders in the same stage (and, on hold, held from the same stage) at the same station,
+ * summed: how many, their units and their units × turns. The estimate is linear in these, so a
+ * group's estimate is the sum of its members' (the load view and the board's column hours are
+ * computed from such groups, aggregated by the database).
+ */
+export type EstimateGroup = { count: number; quantity: number; quantityTurns: number; stage: Stage; heldFrom: Stage | null };
+
+export function estimateGroup(g: EstimateGroup, station: StationTiming, s: FloorSettings): Estimate {
+  let winding = 0;
+  let other = 0;
+  for (const stage of stagesAhead(g.stage, g.heldFrom)) {
+    if (stage === 'winding') {
+      const own = station?.spindleRpm ? station : null;
+      const rpm = own?.spindleRpm ?? s.defaultSpindleRpm;
+      const setup = own ? own.setupSeconds : s.defaultSetupSeconds;
+      // Σ windingHours(q, turns, rpm, setup) over the group.
+      winding = g.quantityTurns / rpm / 60 + (g.count * setup) / 3600;
+    } else {
+      const t = s.stageStandardTimes[stage as StandardTimedStage];
+      if (t) other += (t.minutesPerUnit * g.quantity + t.minutesPerBatch * g.count) / 60;
+    }
+  }
+  return { windingHours: winding, otherHours: other, hours: winding + other };
+}
+
 export function estimateRemaining(
   wo: { quantity: number; stage: Stage; heldFrom: Stage | null; turns: number },
   station: StationTiming,
   s: FloorSettings,
 ): Estimate {
-  let winding = 0;
-  let other = 0;
-  for (const stage of stagesAhead(wo.stage, wo.heldFrom)) {
-    if (stage === 'winding') {
-      const own = station?.spindleRpm ? station : null;
-      winding = windingHours(wo.quantity, wo.turns, own?.spindleRpm ?? s.defaultSpindleRpm, own ? own.setupSeconds : s.defaultSetupSeconds);
-    } else {
-      const t = s.stageStandardTimes[stage as StandardTimedStage];
-      if (t) other += (t.minutesPerUnit * wo.quantity + t.minutesPerBatch) / 60;
-    }
-  }
-  return { windingHours: winding, otherHours: other, hours: winding + other };
+  return estimateGroup({ count: 1, quantity: wo.quantity, quantityTurns: wo.quantity * wo.turns, stage: wo.stage, heldFrom: wo.heldFrom }, station, s);
 }
 
 /** The shop's calendar date (server local time), YYYY-MM-DD. */

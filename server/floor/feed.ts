@@ -2,12 +2,15 @@
  * The floor's live feed. A change to a work order (move, assignment, priority) calls
  * `notifyFloor` inside its own transaction: PostgreSQL delivers the NOTIFY only if the
  * transaction commits, to every API process listening. Each process holds one dedicated
- * connection that LISTENs (opened when its first board connects, closed when the last one
- * leaves) and fans the messages out to its server-sent-event streams.
+ * connection that LISTENs (opened when its first board or its read cache needs it, closed when
+ * the last one leaves) and fans the messages out to its server-sent-event streams and watchers.
+ * A stream may enrich each message for its user (the board sends the changed card, so an open
+ * board updates without fetching its lists again).
  */
 import { sql } from 'drizzle-orm';
 import pg from 'pg';
 import type { Request, Response } from 'express';
+import type { SessionUser } from '../../src/contracts/auth';
 import { FLOOR_EVENT_NAME, type FloorChange } from '../../src/contracts/floor';
 import type { Tx } from '../db/client';
 import { HttpError } from '../http/errors';
@@ -17,18 +20,48 @@ export const FLOOR_CHANNEL = 'floor_changes';
 export const HEARTBEAT_MS = 25_000;
 const RECONNECT_MS = 2_000;
 
-export async function notifyFloor(tx: Tx, change: FloorChange) {
-  await tx.execute(sql`select pg_notify(${FLOOR_CHANNEL}, ${JSON.stringify(change)})`);
+/**
+ * Changes this process announced whose NOTIFY has not come back yet (payload → expiry, ms). Until
+ * it does, this process's read cache neither serves nor keeps answers, so a person who changed
+ * something and reads at once never gets the board from before the change. A rolled-back change
+ * never comes back: its entry expires.
+ */
+const inFlight = new Map<string, number>();
+const IN_FLIGHT_MS = 3_000;
+
+/** Has this process announced a change it has not yet heard back? */
+export function changesInFlight(now = Date.now()): boolean {
+  for (const [payload, until] of inFlight) if (until <= now) inFlight.delete(payload);
+  return inFlight.size > 0;
 }
 
-type Subscriber = { message(payload: string): void; resync(): void };
+export async function notifyFloor(tx: Tx, change: FloorChange) {
+  const payload = JSON.stringify(change);
+  inFlight.set(payload, Date.now() + IN_FLIGHT_MS);
+  await tx.execute(sql`select pg_notify(${FLOOR_CHANNEL}, ${payload})`);
+}
+
+type Subscriber = { message(payload: string): void; resync(): void; lost?(): void };
+
+/** Turns one change into what a user's stream carries (the default: the change as it came). */
+export type Enrich = (change: FloorChange, user: SessionUser) => Promise<unknown>;
 
 /** One LISTEN connection per process, shared by every stream it serves. */
-export function createFloorFeed(databaseUrl: string) {
+export function createFloorFeed(databaseUrl: string, enrich?: Enrich) {
   const subscribers = new Set<Subscriber>();
   let client: pg.Client | null = null;
   let connecting: Promise<void> | null = null;
   let retry: NodeJS.Timeout | null = null;
+
+  /** Subscribers still here: reconnect, then tell them to refetch (they may have missed changes). */
+  function reconnectLater() {
+    if (subscribers.size && !retry) {
+      retry = setTimeout(() => {
+        retry = null;
+        if (subscribers.size) connect().then(() => subscribers.forEach((s) => s.resync()), reconnectLater);
+      }, RECONNECT_MS);
+    }
+  }
 
   function drop(c: pg.Client) {
     if (client === c) client = null;
@@ -42,23 +75,23 @@ export function createFloorFeed(databaseUrl: string) {
     connecting ??= (async () => {
       const c = new pg.Client({ connectionString: databaseUrl, connectionTimeoutMillis: 5_000 });
       const lost = () => {
+        const was = client === c;
         drop(c);
-        // Boards still open: reconnect, then tell them to refetch (they may have missed changes).
-        if (subscribers.size && !retry) {
-          retry = setTimeout(() => {
-            retry = null;
-            if (subscribers.size) connect().then(() => subscribers.forEach((s) => s.resync()), lost);
-          }, RECONNECT_MS);
-        }
+        if (was) subscribers.forEach((s) => s.lost?.());
+        reconnectLater();
       };
       c.on('error', lost);
       c.on('end', lost);
       c.on('notification', (m) => {
-        if (m.channel === FLOOR_CHANNEL && m.payload) for (const s of subscribers) s.message(m.payload);
+        if (m.channel !== FLOOR_CHANNEL || !m.payload) return;
+        inFlight.delete(m.payload);
+        for (const s of subscribers) s.message(m.payload);
       });
       try {
         await c.connect();
         await c.query(`LISTEN ${FLOOR_CHANNEL}`);
+        // The listening socket alone never keeps a process alive (the HTTP server does that).
+        (c as unknown as { connection?: { stream?: { unref?: () => void } } }).connection?.stream?.unref?.();
       } catch (e) {
         drop(c);
         throw e;
@@ -91,8 +124,21 @@ export function createFloorFeed(databaseUrl: string) {
       }
       return () => release(s);
     },
+    /**
+     * Hears every change from now on, across lost connections (reconnecting by itself), until the
+     * returned function is called. `lost` is told when the connection drops (changes may be missed
+     * until `resync`).
+     */
+    watch(s: Subscriber): () => void {
+      subscribers.add(s);
+      connect().catch(() => {
+        s.lost?.();
+        reconnectLater();
+      });
+      return () => release(s);
+    },
     /** Streams the feed to one client until it disconnects. */
-    async stream(req: Request, res: Response) {
+    async stream(req: Request, res: Response, user?: SessionUser) {
       let open = false;
       let closed = false;
       let unsubscribe = () => {};
@@ -107,8 +153,22 @@ export function createFloorFeed(databaseUrl: string) {
         clearInterval(beat);
         unsubscribe();
       });
+      const message = (payload: string) => {
+        if (!enrich || !user) return send(`event: ${FLOOR_EVENT_NAME}\ndata: ${payload}\n\n`);
+        let change: FloorChange;
+        try {
+          change = JSON.parse(payload) as FloorChange;
+        } catch {
+          return;
+        }
+        enrich(change, user).then(
+          (data) => send(`event: ${FLOOR_EVENT_NAME}\ndata: ${JSON.stringify(data)}\n\n`),
+          // Could not read the card: the change alone (the board fetches what it needs).
+          () => send(`event: ${FLOOR_EVENT_NAME}\ndata: ${payload}\n\n`),
+        );
+      };
       unsubscribe = await this.subscribe({
-        message: (payload) => send(`event: ${FLOOR_EVENT_NAME}\ndata: ${payload}\n\n`),
+        message,
         resync: () => send('event: ready\ndata: {}\n\n'),
       });
       if (closed) return unsubscribe();

@@ -1,6 +1,8 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
 import { spoolsOfWire, type WireKey } from '../stock/repository';
+import { run } from './board-repository';
 import { buildSheets, spools, stations, users, workOrders } from '../db/schema';
 
 export type StationRow = typeof stations.$inferSelect;
@@ -89,4 +91,47 @@ export async function oldestLotOfWorkOrderWire(db: Db | Tx, id: number): Promise
   if (!key) return null;
   const [first] = await spoolsOfWire(db, key);
   return first?.spool.lot ?? null;
+}
+
+export type LoadGroup = {
+  assigneeId: number | null;
+  stationId: number | null;
+  stage: Stage;
+  heldFrom: Stage | null;
+  /** Index of the window's day it counts on (by due date; overdue work on day 0). */
+  day: number;
+  count: number;
+  quantity: number;
+  quantityTurns: number;
+};
+
+/**
+ * Open work (not shipped, not in engineering) due on or before `to`, grouped by person, station,
+ * stage, held-from stage and day of the window, with count, units and units × turns. The held-from
+ * stage comes from the last release or move event of the on-hold work orders only; each build
+ * sheet's turns are read once per group.
+ */
+export function loadGroupsQuery(today: string, to: string, days: number) {
+  return sql`with held as (
+      select distinct on (e.work_order_id) e.work_order_id, e.from_stage
+      from work_order_events e join work_orders hw on hw.id = e.work_order_id and hw.stage = 'on_hold'
+      where e.kind in ('release', 'move')
+      order by e.work_order_id, e.at desc, e.id desc
+    ),
+    g as (
+      select w.assignee_id, w.station_id, w.stage, h.from_stage as held_from,
+             greatest(0, least(${days - 1}::int, w.due_date - ${today}::date)) as day,
+             w.build_sheet_id, count(*)::int as n, sum(w.quantity)::int as q
+      from work_orders w left join held h on h.work_order_id = w.id
+      where w.stage not in ('shipped', 'engineering') and w.due_date <= ${to}::date
+      group by 1, 2, 3, 4, 5, 6
+    )
+    select g.assignee_id as "assigneeId", g.station_id as "stationId", g.stage, g.held_from as "heldFrom", g.day::int as day,
+           sum(g.n)::int as count, sum(g.q)::int as quantity, sum(g.q * (bs.result ->> 'turns')::float8)::float8 as "quantityTurns"
+    from g join build_sheets bs on bs.id = g.build_sheet_id
+    group by 1, 2, 3, 4, 5`;
+}
+
+export async function loadGroups(db: Db | Tx, today: string, to: string, days: number): Promise<LoadGroup[]> {
+  return run<LoadGroup>(db, loadGroupsQuery(today, to, days));
 }

@@ -23,7 +23,7 @@ import { conflict, forbidden, HttpError, notFound, ruleBroken } from '../http/er
 import { getFloorSettings } from '../settings/service';
 import * as woRepo from '../work-orders/repository';
 import { getWorkOrder, summaries } from '../work-orders/service';
-import { addDays, daysBetween, estimateRemaining, localDate, workingDays } from './estimate';
+import { addDays, estimateGroup, localDate, workingDays } from './estimate';
 import { notifyFloor } from './feed';
 import { checkMove, MOVERS } from './moves';
 import * as repo from './repository';
@@ -306,41 +306,48 @@ export async function myWork(db: Db, viewer: SessionUser): Promise<MyWorkItem[]>
 
 // ── Load ───────────────────────────────────────────────────────────────────────────────────
 
-/** Estimated hours per person and per station for open work due within the coming days. */
-export async function floorLoad(db: Db, viewer: SessionUser, days: number, today = localDate()): Promise<FloorLoad> {
+/**
+ * Estimated hours per person and per station for open work due within the coming days, computed
+ * from the database's groups (person, station, stage, held-from stage, day) — never by loading
+ * every work order. The estimate is linear in a group's count, units and units × turns.
+ */
+export async function floorLoad(db: Db, _viewer: SessionUser, days: number, today = localDate()): Promise<FloorLoad> {
   const to = addDays(today, days - 1);
-  const [list, settings, floorUsers, activeStations] = await Promise.all([
-    summaries(db, viewer, { excludeStages: ['shipped', 'engineering'], dueTo: to }),
+  const [groups, settings, floorUsers, allStations] = await Promise.all([
+    repo.loadGroups(db, today, to, days),
     getFloorSettings(db),
     repo.activeFloorUsers(db),
-    repo.listStations(db, { active: true }),
+    repo.listStations(db),
   ]);
   const dates = Array.from({ length: days }, (_, i) => addDays(today, i));
   const blank = (): FloorLoadRow => ({ workOrders: 0, windingHours: 0, otherHours: 0, hours: 0, byDay: dates.map((date) => ({ date, hours: 0 })) });
   const people = new Map<number, FloorLoadRow & { id: number; name: string }>(floorUsers.map((u) => [u.id, { id: u.id, name: u.name, ...blank() }]));
-  const stationRows = new Map<number, FloorLoadRow & { id: number; name: string }>(activeStations.map((s) => [s.id, { id: s.id, name: s.name, ...blank() }]));
+  const stationById = new Map(allStations.map((s) => [s.id, s]));
+  const stationRows = new Map<number, FloorLoadRow & { id: number; name: string }>(
+    allStations.filter((s) => s.active).map((s) => [s.id, { id: s.id, name: s.name, ...blank() }]),
+  );
   const unassignedPeople = blank();
   const unassignedStations = blank();
+  // Work assigned to someone no longer among the active floor staff still counts, under their name.
+  const others = [...new Set(groups.map((g) => g.assigneeId).filter((id): id is number => id !== null && !people.has(id)))];
+  for (const u of others.length ? await repo.usersByIds(db, others) : []) people.set(u.id, { id: u.id, name: u.name, ...blank() });
 
-  const add = (row: FloorLoadRow, est: { windingHours: number; otherHours: number; hours: number }, day: number) => {
-    row.workOrders += 1;
+  const add = (row: FloorLoadRow, count: number, est: { windingHours: number; otherHours: number; hours: number }, day: number) => {
+    row.workOrders += count;
     row.windingHours += est.windingHours;
     row.otherHours += est.otherHours;
     row.hours += est.hours;
     row.byDay[day].hours += est.hours;
   };
-  for (const { row: r, summary: s } of list) {
-    const heldFrom = r.wo.stage === 'on_hold' ? (r.lastFrom as WorkOrderSummary['stage'] | null) : null;
-    const est = estimateRemaining({ quantity: r.wo.quantity, stage: r.wo.stage, heldFrom, turns: r.sheet.result.turns }, r.station?.id ? r.station : null, settings);
-    const day = Math.max(0, Math.min(days - 1, daysBetween(today, s.dueDate)));
-    if (s.assignee) {
-      if (!people.has(s.assignee.id)) people.set(s.assignee.id, { id: s.assignee.id, name: s.assignee.name, ...blank() });
-      add(people.get(s.assignee.id)!, est, day);
-    } else add(unassignedPeople, est, day);
-    if (s.station) {
-      if (!stationRows.has(s.station.id)) stationRows.set(s.station.id, { id: s.station.id, name: s.station.name, ...blank() });
-      add(stationRows.get(s.station.id)!, est, day);
-    } else add(unassignedStations, est, day);
+  for (const g of groups) {
+    const st = g.stationId !== null ? stationById.get(g.stationId) : undefined;
+    const est = estimateGroup(g, st ? { spindleRpm: st.spindleRpm, setupSeconds: st.setupSeconds } : null, settings);
+    const person = g.assigneeId !== null ? people.get(g.assigneeId) : undefined;
+    add(person ?? unassignedPeople, g.count, est, g.day);
+    if (st) {
+      if (!stationRows.has(st.id)) stationRows.set(st.id, { id: st.id, name: st.name, ...blank() });
+      add(stationRows.get(st.id)!, g.count, est, g.day);
+    } else add(unassignedStations, g.count, est, g.day);
   }
   const r2 = (x: number) => Math.round(x * 100) / 100;
   const tidy = <T extends FloorLoadRow>(row: T): T => ({

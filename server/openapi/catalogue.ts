@@ -18,6 +18,7 @@ import { listSpoolsQuery, receiveSpoolRequest, spoolListResponse, spoolRecord, s
 import { approveRequest, createInstrumentRequest, dispositionRequest, recordTestRequest, serialsRequest, updateInstrumentRequest } from '../../src/contracts/test-records';
 import { issueTokenRequest, issueTokenResponse, apiTokenRecord, tokenListResponse } from '../../src/contracts/tokens';
 import { travelerBatchRequest, travelerInfo, travelerJobAccepted } from '../../src/contracts/travelers';
+import { boardColumn, boardColumnQuery, boardQuery, boardResponse } from '../../src/contracts/board';
 import { changePasswordRequest, createUserRequest, customerOption, updatePreferencesRequest, updateUserRequest, userRecord } from '../../src/contracts/users';
 import { listWorkOrdersQuery, workOrderDetail, workOrderListResponse } from '../../src/contracts/work-orders';
 
@@ -124,6 +125,8 @@ export const CATALOGUE: Record<string, Operation> = {
   'GET /api/stations': { tag: 'Floor', summary: 'Winding machines, benches, ovens and testers', query: listStationsQuery, response: obj({ stations: z.array(stationRecord) }) },
   'POST /api/stations': { tag: 'Floor', summary: 'Add a station', body: createStationRequest, response: obj({ station: stationRecord }), status: 201 },
   'PATCH /api/stations/:id': { tag: 'Floor', summary: 'Change or retire a station', body: updateStationRequest, response: obj({ station: stationRecord }) },
+  'GET /api/board': { tag: 'Floor', summary: 'The board: every stage with its count and hours, the first cards of each column in the foreman’s order (ETag / 304)', query: boardQuery, response: boardResponse },
+  'GET /api/board/columns/:stage': { tag: 'Floor', summary: 'The next page of one board column (cursor from nextCursor)', query: boardColumnQuery, response: boardColumn },
   'GET /api/floor/load': { tag: 'Floor', summary: 'Hours of work per station and person over the coming days', query: floorLoadQuery, response: floorLoad },
   'GET /api/floor/my-work': { tag: 'Floor', summary: 'The signed-in floor hand’s queue', response: myWorkResponse },
   'GET /api/floor/events': { tag: 'Floor', summary: 'Live changes to work orders (server-sent events)', response: 'event-stream' },

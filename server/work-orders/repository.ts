@@ -2,6 +2,7 @@ import { and, asc, eq, gte, inArray, isNull, lt, lte, ne, notInArray, sql } from
 import { alias } from 'drizzle-orm/pg-core';
 import type { Stage } from '../../src/contracts/stages';
 import type { Db, Tx } from '../db/client';
+import { stageEntries } from '../floor/board-repository';
 import { buildSheets, customers, orderLines, orders, stations, users, workOrderEvents, workOrders } from '../db/schema';
 
 export type WorkOrderRow = typeof workOrders.$inferSelect;
@@ -64,14 +65,21 @@ export type WorkOrderFilter = {
   late?: { today: string; value: boolean };
 };
 
-/** When the work order entered its current stage: its last release or move event. */
-const enteredStageAt = sql<string | Date>`(select max(e.at) from work_order_events e where e.work_order_id = ${workOrders.id} and e.kind in ('release', 'move'))`;
-/** While on hold: the stage and the reason of the hold (its last move event). */
-const lastMove = (col: 'from_stage' | 'note') =>
-  sql<string | null>`(select e.${sql.raw(col)} from work_order_events e where e.work_order_id = ${workOrders.id} and e.kind in ('release', 'move') order by e.at desc, e.id desc limit 1)`;
+/**
+ * Work orders with their order, customer, line, sheet and assignee; oldest due first. Each with
+ * when it entered its stage and, while on hold, the stage and reason of the hold (its last release
+ * or move event), read for all the rows in one batched look-up, not a subquery per row.
+ */
+export async function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
+  const rows = await workOrderRows(db, f);
+  const entries = await stageEntries(db, rows.map((r) => r.wo.id));
+  return rows.map((r) => {
+    const e = entries.get(r.wo.id);
+    return { ...r, enteredStageAt: e?.at ?? null, lastFrom: e?.fromStage ?? null, lastNote: e?.note ?? null };
+  });
+}
 
-/** Work orders with their order, customer, line, sheet and assignee; oldest due first. */
-export function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
+function workOrderRows(db: Db | Tx, f: WorkOrderFilter) {
   return db
     .select({
       wo: workOrders,
@@ -81,9 +89,6 @@ export function listWorkOrders(db: Db | Tx, f: WorkOrderFilter) {
       assigneeName: assignee.name,
       station: { id: stations.id, name: stations.name, spindleRpm: stations.spindleRpm, setupSeconds: stations.setupSeconds },
       sheet: buildSheets,
-      enteredStageAt,
-      lastFrom: lastMove('from_stage'),
-      lastNote: lastMove('note'),
     })
     .from(workOrders)
     .innerJoin(orders, eq(orders.id, workOrders.orderId))

@@ -1,4 +1,4 @@
-import { Outlet, useNavigation } from 'react-router';
+import { Outlet, useLocation, useNavigation } from 'react-router';
 import { Brand } from '../components/Brand';
 import { ChangePasswordPage, UserMenu } from '../features/auth';
 import { useCurrentUser } from '../lib/session';
@@ -10,6 +10,8 @@ export function Layout() {
   const user = useCurrentUser();
   const navigation = useNavigation();
   const touch = TOUCH_ROLES.includes(user.role);
+  // The board uses the whole width of the window: every stage side by side.
+  const wide = useLocation().pathname === '/board';
   return (
     <div className="flex min-h-screen flex-col" data-density={touch ? 'touch' : 'dense'} data-role={user.role}>
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">
@@ -23,7 +25,7 @@ export function Layout() {
         </div>
         <div aria-hidden className={`h-0.5 bg-copper-400 transition-opacity ${navigation.state === 'loading' ? 'animate-pulse opacity-100' : 'opacity-0'}`} />
       </header>
-      <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6">
+      <main id="main" className={`mx-auto w-full flex-1 px-4 py-6 ${wide ? 'max-w-none' : 'max-w-7xl'}`}>
         {user.mustChangePassword ? <ChangePasswordPage /> : <Outlet />}
       </main>
       <footer className="border-t border-graphite-200 py-3 text-center text-xs text-graphite-500">

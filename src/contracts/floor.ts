@@ -311,8 +311,11 @@ export const FLOOR_CHANGE_KINDS = ['move', 'assign', 'priority', 'release'] as c
 
 /**
  * GET /api/floor/events (text/event-stream). On connect: `event: ready` (data `{}`); then one
- * `event: work-order` per changed work order with this JSON as data; a `: heartbeat` comment
- * every 25 s. Refetch the board (or the card) on each message; the stream carries no more.
+ * `event: work-order` per changed work order with this JSON as data, plus `card`: the work order's
+ * board card as the signed-in user sees it now, null when it left the board (BoardDelta in
+ * board.ts); a `: heartbeat` comment every 25 s. A message without `card` (the server could not
+ * read it) means: fetch what you show again. After `ready` (also on reconnecting) fetch again what
+ * may have changed meanwhile (answers carry ETags, so this is cheap).
  */
 export const floorChange = z.object({
   kind: z.enum(FLOOR_CHANGE_KINDS),

@@ -39,6 +39,8 @@ const isoDate = (what: string) =>
 const bool = (what: string) => z.enum(['true', 'false'], { error: `${what}: true or false` }).transform((s) => s === 'true');
 /** An id, or `none` for "nobody / no station assigned". */
 const idOrNone = (what: string) => z.union([z.literal('none'), id(what)], { error: `${what}: an id or none` });
+/** Query-string field builders the board's contract shares (board.ts). */
+export const queryFields = { id, isoDate, bool, idOrNone };
 
 /**
  * GET /api/work-orders query: all optional; `stage` takes one stage or several, comma-separated.

@@ -4,11 +4,10 @@
  * server's move table decides for real (a refused move answers 422 naming the rule); this only
  * lets the screens ask for the note up front instead of after a refusal.
  */
-import { FLOOR_STAGES } from '../../contracts/floor';
 import { FLOW_STAGES, SIDE_STAGES, STAGE_LABELS, flowIndex, type Stage } from '../../contracts/stages';
 
-/** The board's columns: the floor stages (ready … packing), then the side states. */
-export const BOARD_STAGES: readonly Stage[] = [...FLOOR_STAGES, ...SIDE_STAGES];
+/** The board's columns (the contract's list). */
+export { BOARD_STAGES } from '../../contracts/board';
 
 const isSide = (s: Stage) => (SIDE_STAGES as readonly string[]).includes(s);
 

@@ -1,0 +1,1 @@
+CREATE INDEX "work_orders_board_idx" ON "work_orders" USING btree ("stage",(-"priority"),"due_date","id");
