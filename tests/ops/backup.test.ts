@@ -89,5 +89,5 @@ describe('backup and restore', () => {
     const again = await runScript('scripts/restore.ts', [dir], { DATABASE_URL: TARGET_DB, S3_BUCKET: TARGET_BUCKET });
     expect(again.code).toBe(1);
     expect(again.out).toContain('the target is not empty');
-  });
+  }, 180_000); // a dump, an upload of every object and a restore: slow on a busy machine
 });

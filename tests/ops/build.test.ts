@@ -94,5 +94,5 @@ describe('the compiled build', () => {
       body: JSON.stringify({ email: 'admin@spoolwright.test', password: 'spoolwright-demo' }),
     });
     expect(login.status).toBe(200);
-  });
+  }, 180_000);
 });

@@ -56,7 +56,7 @@ describe('npm run setup on a fresh database', () => {
     });
     expect(second.code).toBe(1);
     expect(second.out).toContain('refused: An admin exists already (owner@shop.example)');
-  });
+  }, 180_000);
 
   it('refuses the demo seed when NODE_ENV=production', async () => {
     const seeded = await runScript('scripts/db.ts', ['seed'], {
@@ -70,7 +70,7 @@ describe('npm run setup on a fresh database', () => {
     });
     expect(seeded.code).toBe(2);
     expect(seeded.out).toContain('the demo shop is never seeded with NODE_ENV=production');
-  });
+  }, 180_000);
 });
 
 describe('production configuration', () => {
